@@ -1,0 +1,103 @@
+// Reference values and thresholds: the one place they live. Ranges of plausibility live in schema.ts.
+// All in canonical units (mmHg, mmol/L, g/dL). Departments may override the configurable ones.
+
+/** Normal arterial values (common practice). */
+export const NORMAL = {
+  ph: { low: 7.35, high: 7.45, mid: 7.40 },
+  pco2: { low: 35, high: 45, mid: 40 },
+  hco3: { low: 22, high: 26, mid: 24 },
+  hPlus: 40,
+} as const;
+
+/** Pregnancy reference (textbook common practice: physiological chronic respiratory alkalosis). */
+export const PREGNANCY = {
+  pco2: { low: 28, high: 32, mid: 30 },
+  hco3: { low: 18, high: 22, mid: 20 },
+} as const;
+
+/** Compensation band half-width, mmol/L or mmHg, unless a rule states its own (Berend 2014). */
+export const COMPENSATION_BAND = 2;
+
+/** Henderson consistency tolerance (clinical-scope section 2): flag beyond 3 mmol/L or 10%. */
+export const CONSISTENCY = { absolute: 3, relative: 0.10 } as const;
+
+/** Unit mix-up screen: a PaCO2 below this in "mmHg" with a near-normal pH is probably kPa. */
+export const UNIT_SCREEN = { pco2MmHgBelow: 15, phLow: 7.30, phHigh: 7.50 } as const;
+
+/** Delta ratio bands (Wrenn 1990). */
+export const DELTA_RATIO = { normalGapBelow: 0.4, mixedBelow: 0.8, highGapUpTo: 2.0 } as const;
+
+/** Lactate bands (Surviving Sepsis Campaign 2021). */
+export const LACTATE = { raised: 2, high: 4 } as const;
+
+/** Osmolar gap above this is raised (common practice). */
+export const OSMOLAR_GAP_RAISED = 10;
+
+/** Urine chloride below this suggests chloride-responsive metabolic alkalosis (common practice). */
+export const URINE_CHLORIDE_RESPONSIVE = 20;
+
+/** Oxygenation bands. */
+export const OXYGENATION = {
+  hypoxaemia: 80,          // PaO2 below 80 mmHg: hypoxaemia (common practice)
+  respiratoryFailure: 60,  // PaO2 below 60 mmHg: respiratory failure (common practice)
+  hypercapnia: 45,         // PaCO2 above 45 mmHg with PaO2 < 60: type 2 failure (common practice)
+  pfMinimumPeep: 5,        // Berlin: bands apply with PEEP or CPAP >= 5 cmH2O
+  pfMild: 300, pfModerate: 200, pfSevere: 100,
+  sfThreshold: 315,        // 2024 global definition: SpO2/FiO2 <= 315 when SpO2 <= 97%
+  sfMaxSpo2: 97,
+  roomAirFio2: 0.21,
+} as const;
+
+/** Standard physiological constants (common practice / textbook). */
+export const PHYSIOLOGY = {
+  waterVapourMmHg: 47,
+  respiratoryQuotient: 0.8,
+  seaLevelMmHg: 760,
+  typicalVco2: 200,  // mL/min
+  typicalVo2: 250,   // mL/min
+  anatomicDeadSpaceMlPerKg: 2.2, // Radford 1955
+  acuteBufferPerMmHg: 0.1,       // HCO3 mmol/L per mmHg PaCO2, acute (Berend 2014)
+  alveolarConstant: 0.863,       // West
+} as const;
+
+/** Lung-protective ventilation thresholds. */
+export const VENTILATION = {
+  vtTargetPerKg: 6, vtLowPerKg: 4, vtHighPerKg: 8, // ARDS Network 2000
+  plateauMax: 30,                                   // ARDS Network 2000
+  drivingPressureMax: 15,                           // Amato 2015
+  rrMax: 35,                                        // air trapping, auto-PEEP (common practice)
+  recheckMinutes: { low: 20, high: 30 },            // common practice
+} as const;
+
+/** Settings a department or a clinician may change. */
+export interface Settings {
+  anionGapNormal: number;          // mmol/L, mid of the lab's reference
+  anionGapHalfWidth: number;       // mmol/L, upper limit = normal + halfWidth
+  anionGapIncludesK: boolean;
+  critical: {
+    phLow: number; phHigh: number; pco2High: number; po2Low: number;
+    kLow: number; kHigh: number; lactateHigh: number;
+  };
+}
+
+// AG 12 +/- 4 by default; many modern analysers report 3-11 (Kraut and Madias 2007).
+export const DEFAULT_SETTINGS: Settings = {
+  anionGapNormal: 12,
+  anionGapHalfWidth: 4,
+  anionGapIncludesK: false,
+  critical: { phLow: 7.20, phHigh: 7.60, pco2High: 70, po2Low: 60, kLow: 2.8, kHigh: 6.2, lactateHigh: 4 },
+};
+
+export function mergeSettings(partial: Partial<Omit<Settings, 'critical'>> & { critical?: Partial<Settings['critical']> } | undefined | null): Settings {
+  if (!partial) return DEFAULT_SETTINGS;
+  return {
+    anionGapNormal: partial.anionGapNormal ?? DEFAULT_SETTINGS.anionGapNormal,
+    anionGapHalfWidth: partial.anionGapHalfWidth ?? DEFAULT_SETTINGS.anionGapHalfWidth,
+    anionGapIncludesK: partial.anionGapIncludesK ?? DEFAULT_SETTINGS.anionGapIncludesK,
+    critical: { ...DEFAULT_SETTINGS.critical, ...stripNullish(partial.critical ?? {}) },
+  };
+}
+
+function stripNullish<T extends object>(o: T): Partial<T> {
+  return Object.fromEntries(Object.entries(o).filter(([, v]) => v !== null && v !== undefined)) as Partial<T>;
+}
