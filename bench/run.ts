@@ -1,0 +1,158 @@
+// npm run bench: measured figures against their targets. BENCH_SHORT=1 gives a smoke run (CI); targets
+// are printed with pass or fail, never asserted in unit tests.
+import { spawn, type ChildProcess } from 'node:child_process';
+import { readFileSync } from 'node:fs';
+import { gzipSync } from 'node:zlib';
+import { createServer } from 'node:net';
+import autocannon from 'autocannon';
+import { interpret } from '../calc/index.ts';
+import { BENCH_CASE } from './case.ts';
+
+const SHORT = process.env.BENCH_SHORT === '1';
+const seconds = (full: number, short: number) => (SHORT ? short : full);
+
+interface Row { figure: string; value: string; target: string; pass: boolean | null }
+const rows: Row[] = [];
+const record = (figure: string, value: string, target: string, pass: boolean | null) => {
+  rows.push({ figure, value, target, pass });
+  console.log(`${figure.padEnd(44)} ${value.padStart(14)}   target ${target.padEnd(16)} ${pass === null ? '' : pass ? 'PASS' : 'FAIL'}`);
+};
+
+function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const srv = createServer();
+    srv.listen(0, '127.0.0.1', () => {
+      const address = srv.address();
+      srv.close(() => (typeof address === 'object' && address ? resolve(address.port) : reject(new Error('no port'))));
+    });
+  });
+}
+
+async function startServer(port: number): Promise<ChildProcess> {
+  const child = spawn(process.execPath, ['--import', 'tsx', 'server/main.ts'], {
+    env: { ...process.env, PORT: String(port), HOST: '127.0.0.1', REQUEST_LOG: 'off' },
+    stdio: ['ignore', 'pipe', 'inherit'],
+  });
+  await new Promise<void>((resolve, reject) => {
+    const timer = setTimeout(() => reject(new Error('server did not start in 10 s')), 10_000);
+    child.stdout!.on('data', (chunk: Buffer) => {
+      if (chunk.toString().includes('listening')) { clearTimeout(timer); resolve(); }
+    });
+    child.on('exit', (code) => reject(new Error(`server exited with ${code}`)));
+  });
+  return child;
+}
+
+function rssMb(pid: number): number {
+  const status = readFileSync(`/proc/${pid}/status`, 'utf8');
+  const kb = Number(/VmRSS:\s+(\d+)/.exec(status)?.[1] ?? 0);
+  return kb / 1024;
+}
+
+// (a) the calculation core on one core
+function benchCore() {
+  const warm = SHORT ? 2_000 : 50_000;
+  for (let i = 0; i < warm; i++) interpret(BENCH_CASE);
+  const n = SHORT ? 20_000 : 300_000;
+  const start = process.hrtime.bigint();
+  for (let i = 0; i < n; i++) interpret(BENCH_CASE);
+  const ns = Number(process.hrtime.bigint() - start);
+  const perSecond = n / (ns / 1e9);
+  record('(a) core interpretations/s (one core)', Math.round(perSecond).toLocaleString('en'), '>= 200,000', perSecond >= 200_000);
+}
+
+interface Route { name: string; path: string; method: 'GET' | 'POST'; headers?: Record<string, string>; body?: string }
+
+async function load(base: string, route: Route, connections: number, duration: number) {
+  const result = await autocannon({
+    url: base + route.path, method: route.method, connections, duration,
+    headers: route.headers, body: route.body,
+  });
+  return {
+    rps: result.requests.average,
+    p50: result.latency.p50,
+    p99: result.latency.p99,
+    errors: result.errors + result.timeouts + result.non2xx,
+  };
+}
+
+async function main() {
+  console.log(`Gasline benchmark${SHORT ? ' (short smoke run: figures are not meaningful)' : ''}, node ${process.version}\n`);
+  benchCore();
+
+  const port = await freePort();
+  const started = performance.now();
+  const server = await startServer(port);
+  const startMs = performance.now() - started;
+  record('(e) start-up to listening, ms', startMs.toFixed(0), '< 1000 ms', startMs < 1000);
+  const base = `http://127.0.0.1:${port}`;
+  try {
+    const json = JSON.stringify(BENCH_CASE);
+    const routes: Route[] = [
+      { name: '/healthz', path: '/healthz', method: 'GET' },
+      { name: 'POST /api/interpret', path: '/api/interpret', method: 'POST', headers: { 'content-type': 'application/json' }, body: json },
+    ];
+    const draft = draftRoute(json);
+    if (draft) routes.push(draft);
+
+    // (b) one run against one server, 16 connections
+    const figures = new Map<string, Awaited<ReturnType<typeof load>>>();
+    for (const route of routes) {
+      await load(base, route, 16, 1); // warm-up
+      figures.set(route.name, await load(base, route, 16, seconds(10, 2)));
+    }
+    const bare = figures.get('/healthz')!;
+    for (const route of routes) {
+      const f = figures.get(route.name)!;
+      const ratio = f.rps / bare.rps;
+      record(`(b) ${route.name} req/s (16 conn)`, Math.round(f.rps).toLocaleString('en'), '', null);
+      record(`(b) ${route.name} p50 / p99 ms`, `${f.p50} / ${f.p99}`, 'p99 <= 10 ms', f.p99 <= 10);
+      if (route.name !== '/healthz') record(`(b) ${route.name} / bare ratio`, ratio.toFixed(2), '>= 0.5', ratio >= 0.5);
+      record(`(b) ${route.name} errors`, String(f.errors), '0', f.errors === 0);
+    }
+
+    // (c) soak: 60 s at 32 connections on the interpret route
+    const before = rssMb(server.pid!);
+    const soak = await load(base, routes[1]!, 32, seconds(60, 3));
+    const after = rssMb(server.pid!);
+    record('(c) soak errors (32 conn)', String(soak.errors), '0', soak.errors === 0);
+    record('(c) soak RSS growth MB', (after - before).toFixed(1), '< 30 MB', after - before < 30);
+
+    // (d) first screen weight: the page and everything it loads
+    const weight = await pageWeight(base);
+    if (weight) {
+      record('(d) first screen bytes', weight.bytes.toLocaleString('en'), '', null);
+      record('(d) first screen gzip bytes', weight.gzip.toLocaleString('en'), '<= 60 KB gzip', weight.gzip <= 60 * 1024);
+    }
+  } finally {
+    server.kill('SIGTERM');
+  }
+  const failed = rows.filter((r) => r.pass === false).length;
+  console.log(`\n${rows.filter((r) => r.pass !== null).length - failed} targets met, ${failed} missed${SHORT ? ' (short run: not judged)' : ''}`);
+}
+
+/** The page's draft fragment, if the page exposes one (see views/ and server/page.ts). */
+function draftRoute(_json: string): Route | null {
+  return null;
+}
+
+async function pageWeight(base: string): Promise<{ bytes: number; gzip: number } | null> {
+  const res = await fetch(base + '/');
+  if (!res.ok || !(res.headers.get('content-type') ?? '').includes('html')) return null;
+  const html = await res.text();
+  const assets = [...html.matchAll(/(?:src|href)="(\/[^"]+)"/g)].map((m) => m[1]!).filter((p) => !p.startsWith('//'));
+  let bytes = Buffer.byteLength(html), gzip = gzipSync(html).length;
+  for (const path of new Set(assets)) {
+    const r = await fetch(base + path);
+    if (!r.ok) continue;
+    const body = Buffer.from(await r.arrayBuffer());
+    bytes += body.length;
+    gzip += gzipSync(body).length;
+  }
+  return { bytes, gzip };
+}
+
+main().catch((err) => {
+  console.error(err);
+  process.exit(1);
+});

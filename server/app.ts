@@ -1,0 +1,57 @@
+// The application: routes wired to calc/, templates/ and views/, with headers, limits and errors.
+import { Hono } from 'hono';
+import { HTTPException } from 'hono/http-exception';
+import { secureHeaders } from 'hono/secure-headers';
+import { apiRoutes } from './api.ts';
+import { pageRoutes } from './page.ts';
+import { jsonError } from './errors.ts';
+import { createNoteRenderer, type NoteRenderer } from '../templates/index.ts';
+import type { InterpretOptions } from '../calc/index.ts';
+
+export interface AppOptions {
+  /** a department's folder of note templates (NOTE_TEMPLATES) */
+  templateDir?: string | null;
+  renderer?: NoteRenderer;
+  interpretOptions?: InterpretOptions;
+  /** request log sink: method, path, status and time only, never a value from a case */
+  log?: (line: string) => void;
+}
+
+export function createApp(options: AppOptions = {}): Hono {
+  const renderer = options.renderer ?? createNoteRenderer({ templateDir: options.templateDir ?? null });
+  const app = new Hono();
+  const log = options.log;
+
+  if (log) {
+    app.use(async (c, next) => {
+      const start = performance.now();
+      await next();
+      log(`${c.req.method} ${c.req.path} ${c.res.status} ${(performance.now() - start).toFixed(1)}ms`);
+    });
+  }
+
+  // strict CSP for the page: own files only, no inline script or style, no framing
+  app.use(secureHeaders({
+    contentSecurityPolicy: {
+      defaultSrc: ["'self'"], scriptSrc: ["'self'"], styleSrc: ["'self'"], imgSrc: ["'self'"], connectSrc: ["'self'"],
+      formAction: ["'self'"], frameAncestors: ["'none'"], baseUri: ["'none'"], objectSrc: ["'none'"],
+    },
+    xFrameOptions: 'DENY',
+  }));
+
+  app.route('/', apiRoutes({ renderer, interpretOptions: options.interpretOptions }));
+  app.route('/', pageRoutes({ renderer, interpretOptions: options.interpretOptions }));
+
+  app.notFound((c) => jsonError(c, 404, `No route for ${c.req.method} ${c.req.path}`));
+  app.onError((err, c) => {
+    if (err instanceof HTTPException) {
+      const status = err.status;
+      if (status === 400) return jsonError(c, 400, 'The body is not valid JSON');
+      if (status === 413) return jsonError(c, 413, 'The body is too large');
+      return jsonError(c, status as 400, err.message || 'Bad request');
+    }
+    // a fault of ours, not of the request: say so without echoing anything from it
+    return jsonError(c, 500, 'Internal error: the request was not processed');
+  });
+  return app;
+}
