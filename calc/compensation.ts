@@ -34,6 +34,8 @@ export interface ReferencePoint {
   kind: 'textbook' | 'pregnancy' | 'baseline';
   /** set when part of the baseline was worked out rather than stated */
   estimated: { pco2: boolean; hco3: boolean };
+  /** a usual pH was given alone but the current HCO3 is low, so it cannot stand for the chronic part: not used */
+  usualPhIgnored: boolean;
 }
 
 export interface Baseline { pco2?: number | null; hco3?: number | null; ph?: number | null }
@@ -68,29 +70,51 @@ export function expectedHco3(pco2: number, timing: Timing, ref = { pco2: 40, hco
   return { band: timing === 'acute' ? acute : timing === 'chronic' ? chronic : span, acute, chronic };
 }
 
+// Usual pH with the current gas: the current HCO3 is the chronic part plus the acute buffering of the change in
+// PaCO2 since baseline (Berend 2014 acute rules: +1 per 10 mmHg rising, -2 per 10 falling), so with k = 0.1 or 0.2
+// usual HCO3 = (HCO3 - k x PaCO2) / (1 - k x [H+]usual / 24) and usual PaCO2 = [H+]usual x usual HCO3 / 24 (Henderson).
+export function baselineFromUsualPh(usualPh: number, pco2: number, hco3: number): { pco2: number; hco3: number } {
+  const h = hydrogenIon(usualPh);
+  for (const [k, rising] of [[0.1, true], [0.2, false]] as const) {
+    const numerator = hco3 - k * pco2, denominator = 1 - (k * h) / 24;
+    if (numerator <= 0 || denominator <= 0) continue;
+    const usualHco3 = numerator / denominator, usualPco2 = hendersonPco2(h, usualHco3);
+    if (rising ? usualPco2 <= pco2 : usualPco2 >= pco2) return { pco2: usualPco2, hco3: usualHco3 };
+  }
+  return { pco2: hendersonPco2(h, hco3), hco3 };
+}
+
+// An estimated usual value stays inside the plausibility ranges of schema.ts (PaCO2 5-200 mmHg, HCO3 1-70 mmol/L).
+const plausiblePco2 = (p: number): number => Math.min(200, Math.max(5, p));
+const plausibleHco3 = (h: number): number => Math.min(70, Math.max(1, h));
+
 /**
  * The reference point: a stated baseline overrides textbook 40/24; pregnancy uses its own.
  * Baseline reasoning: with a usual pH and an HCO3 (usual, or the current one as the chronic part),
- * the usual PaCO2 follows from the Henderson equation, reported as an estimate.
+ * the usual PaCO2 follows from the Henderson equation, reported as an estimate. A usual pH alone is not used
+ * when the current HCO3 is below the reference range: that HCO3 has itself moved (a metabolic change).
  */
-export function referencePoint(baseline: Baseline | null | undefined, pregnant: boolean, currentHco3: number): ReferencePoint {
+export function referencePoint(baseline: Baseline | null | undefined, pregnant: boolean, currentHco3: number, currentPco2?: number): ReferencePoint {
   const textbook = pregnant
     ? { pco2: PREGNANCY.pco2.mid, hco3: PREGNANCY.hco3.mid, pco2Band: { low: PREGNANCY.pco2.low, high: PREGNANCY.pco2.high }, hco3Band: { low: PREGNANCY.hco3.low, high: PREGNANCY.hco3.high } }
     : { pco2: NORMAL.pco2.mid, hco3: NORMAL.hco3.mid, pco2Band: { low: NORMAL.pco2.low, high: NORMAL.pco2.high }, hco3Band: { low: NORMAL.hco3.low, high: NORMAL.hco3.high } };
+  const textbookPoint = (usualPhIgnored: boolean): ReferencePoint =>
+    ({ ...textbook, kind: pregnant ? 'pregnancy' : 'textbook', estimated: { pco2: false, hco3: false }, usualPhIgnored });
   const b = baseline ?? {};
   const has = (v: number | null | undefined): v is number => v !== null && v !== undefined;
-  if (!has(b.pco2) && !has(b.hco3) && !has(b.ph)) {
-    return { ...textbook, kind: pregnant ? 'pregnancy' : 'textbook', estimated: { pco2: false, hco3: false } };
-  }
+  if (!has(b.pco2) && !has(b.hco3) && !has(b.ph)) return textbookPoint(false);
   let pco2 = has(b.pco2) ? b.pco2 : null;
   let hco3 = has(b.hco3) ? b.hco3 : null;
   const estimated = { pco2: false, hco3: false };
   if (has(b.ph)) {
     const h = hydrogenIon(b.ph);
-    if (pco2 === null) {
-      hco3 ??= currentHco3; estimated.hco3 = !has(b.hco3);
+    if (pco2 === null && hco3 === null) {
+      if (currentHco3 < textbook.hco3Band.low) return textbookPoint(true);
+      const usual = currentPco2 === undefined ? { pco2: hendersonPco2(h, currentHco3), hco3: currentHco3 } : baselineFromUsualPh(b.ph, currentPco2, currentHco3);
+      pco2 = usual.pco2; hco3 = usual.hco3; estimated.pco2 = true; estimated.hco3 = true;
+    } else if (pco2 === null && hco3 !== null) {
       pco2 = hendersonPco2(h, hco3); estimated.pco2 = true;
-    } else if (hco3 === null) {
+    } else if (pco2 !== null && hco3 === null) {
       hco3 = (24 * pco2) / h; estimated.hco3 = true;
     }
   }
@@ -102,8 +126,9 @@ export function referencePoint(baseline: Baseline | null | undefined, pregnant: 
     // usual PaCO2 by inverting the chronic respiratory rule, an estimate
     pco2 = hco3 >= 24 ? 40 + ((hco3 - 24) * 10) / 3.5 : 40 - ((24 - hco3) * 10) / 4.5; estimated.pco2 = true;
   }
-  const p = pco2 as number, h = hco3 as number;
-  return { pco2: p, hco3: h, pco2Band: { low: p - 5, high: p + 5 }, hco3Band: band(h), kind: 'baseline', estimated };
+  const p = estimated.pco2 ? plausiblePco2(pco2 as number) : (pco2 as number);
+  const h = estimated.hco3 ? plausibleHco3(hco3 as number) : (hco3 as number);
+  return { pco2: p, hco3: h, pco2Band: { low: p - 5, high: p + 5 }, hco3Band: band(h), kind: 'baseline', estimated, usualPhIgnored: false };
 }
 
 export interface AnionGapView {

@@ -169,6 +169,8 @@ function emptyDerived(hPlus: number, gas: Gas): Derived {
 /** PaCO2 that looks like the other pressure unit, with a near-normal pH, and no HCO3 that settles it. */
 export function unitLooksMixed(c: CanonicalCase): boolean {
   const g = c.gas;
+  // a PaCO2 worked out from pH and HCO3 was not entered in any unit
+  if (g.computed === 'pco2') return false;
   if (g.ph < UNIT_SCREEN.phLow || g.ph > UNIT_SCREEN.phHigh) return false;
   const suspicious = c.units.pressure === 'mmHg' ? g.pco2 < UNIT_SCREEN.pco2MmHgBelow : g.pco2 > UNIT_SCREEN.pco2MmHgBelow * 7.50062;
   if (!suspicious) return false;
@@ -195,7 +197,9 @@ function readCase(c: CanonicalCase): Findings {
 
   if (g.computed) flags.push(flag('gas_value_computed', 'info', { field: g.computed, value: round(g[g.computed], g.computed === 'ph' ? 2 : 1) }));
 
-  const reference = referencePoint(c.context.baseline, c.patient.pregnant, g.hco3);
+  // a pressure in doubt (unit_ambiguous, below) puts the usual PaCO2 in doubt too: the textbook reference then
+  const withheld = unitLooksMixed(c);
+  const reference = withheld ? referencePoint(null, c.patient.pregnant, g.hco3) : referencePoint(c.context.baseline, c.patient.pregnant, g.hco3, g.pco2);
   const base: Omit<Findings, 'phStatus' | 'consistency' | 'compensation' | 'disorders' | 'metabolic' | 'oxygenation' | 'ventilation' | 'venous' | 'withheld'> = {
     ok: true, units: c.units, case: c, reference, derived, flags, explain,
     previous: c.previous.map((p) => ({ ...p, hPlus: hydrogenIon(p.gas.ph) })),
@@ -203,8 +207,12 @@ function readCase(c: CanonicalCase): Findings {
   };
 
   // A likely unit slip: ask, compute nothing from the pressure (clinical-scope section 3).
-  if (unitLooksMixed(c)) {
+  if (withheld) {
+    // a value worked out from the doubtful PaCO2 is not reported either
+    const computedFlag = flags.findIndex((x) => x.code === 'gas_value_computed');
+    if (computedFlag >= 0) flags.splice(computedFlag, 1);
     flags.push(flag('unit_ambiguous', 'critical', { field: 'gas.pco2', entered: c.units.pressure, pco2: round(g.pco2, 1), ph: g.ph }));
+    if (c.sample !== 'arterial') flags.push(flag('oxygenation_not_assessable', 'info', { sample: c.sample }));
     criticalFlags(c, flags, true);
     return finish({
       ...base, withheld: true, phStatus: classifyPhOnly(g.ph), consistency: null, compensation: null, disorders: [],
@@ -381,6 +389,13 @@ function explainCompensation(comp: Compensation | null, ref: ReferencePoint, exp
 function oxygenationPart(c: CanonicalCase, d: Derived, explain: Record<string, Explanation>, flags: Flag[]): Oxygenation {
   const o = notAssessed(c);
   const g = c.gas, ox = c.oxygen;
+  // SpO2/FiO2 needs no arterial PO2: it is the 2024 global definition's measure when no arterial gas is at hand
+  if (has(ox.spo2) && has(ox.fio2)) {
+    const sf = sfRatio(ox.spo2, ox.fio2);
+    d.sfRatio = sf;
+    o.sfMeetsCriterion = sfMeetsCriterion(ox.spo2, sf);
+    explain.sfRatio = explanation('sfRatio', 'SpO2/FiO2', round(sf, 0), '', 'S/F = SpO2 % / FiO2', [input('SpO2', ox.spo2, '%'), input('FiO2', ox.fio2, '')], 'ardsGlobal2024');
+  }
   if (c.sample !== 'arterial') {
     flags.push(flag('oxygenation_not_assessable', 'info', { sample: c.sample }));
     return o;
@@ -428,12 +443,6 @@ function oxygenationPart(c: CanonicalCase, d: Derived, explain: Record<string, E
   explain.pfRatio = explanation('pfRatio', 'P/F ratio', round(pf, 0), 'mmHg', 'P/F = PaO2 / FiO2', [input('PaO2', round(g.po2, 1), 'mmHg'), input('FiO2', ox.fio2, '')], 'ardsBerlin');
   o.pfBandApplies = has(ox.peep) && ox.peep >= OXYGENATION.pfMinimumPeep;
   o.pfBand = pfBand(pf);
-  if (has(ox.spo2)) {
-    const sf = sfRatio(ox.spo2, ox.fio2);
-    d.sfRatio = sf;
-    o.sfMeetsCriterion = sfMeetsCriterion(ox.spo2, sf);
-    explain.sfRatio = explanation('sfRatio', 'SpO2/FiO2', round(sf, 0), '', 'S/F = SpO2 % / FiO2', [input('SpO2', ox.spo2, '%'), input('FiO2', ox.fio2, '')], 'ardsGlobal2024');
-  }
   return o;
 }
 

@@ -98,9 +98,17 @@ const numbersOf = <K extends string>(ranges: Record<K, Range>) =>
   Object.fromEntries(Object.entries<Range>(ranges).map(([key, range]) => [key, optionalNumber(range.label)])) as
     Record<K, ReturnType<typeof optionalNumber>>;
 
-export const gasSchema = z.strictObject(numbersOf(GAS_RANGES));
+// a group that is missing (where required) or not an object gets a message that names it
+const group = <S extends z.core.$ZodLooseShape>(name: string, shape: S) =>
+  z.strictObject(shape, {
+    error: (issue) => issue.code !== 'invalid_type' ? undefined
+      : issue.input === undefined ? `${name} is required: give at least two of pH, PaCO2 and HCO3`
+      : `${name} must be an object of named values`,
+  });
 
-export const unitsSchema = z.strictObject({
+export const gasSchema = group('gas', numbersOf(GAS_RANGES));
+
+export const unitsSchema = group('units', {
   pressure: oneOf('Pressure unit', ['mmHg', 'kPa']).nullish(),
   albumin: oneOf('Albumin unit', ['g/dL', 'g/L']).nullish(),
   hb: oneOf('Hb unit', ['g/dL', 'g/L']).nullish(),
@@ -110,39 +118,39 @@ export const unitsSchema = z.strictObject({
   ethanol: oneOf('Ethanol unit', ['mg/dL', 'mmol/L']).nullish(),
 });
 
-const baselineSchema = z.strictObject({
+const baselineSchema = group('context.baseline', {
   pco2: optionalNumber('Usual PaCO2'),
   hco3: optionalNumber('Usual HCO3'),
   ph: optionalNumber('Usual pH'),
 });
 
-const previousSchema = z.strictObject({
+const previousSchema = group('previous gas', {
   takenAt: z.string({ error: 'takenAt must be text (a date and time)' }).max(40, 'takenAt is too long').nullish(),
   label: z.string({ error: 'label must be text' }).max(80, 'label is too long').nullish(),
   gas: gasSchema,
-  oxygen: z.strictObject({ fio2: optionalNumber('FiO2'), peep: optionalNumber('PEEP') }).nullish(),
-  ventilator: z.strictObject({ vt: optionalNumber('VT'), rr: optionalNumber('RR') }).nullish(),
+  oxygen: group('oxygen', { fio2: optionalNumber('FiO2'), peep: optionalNumber('PEEP') }).nullish(),
+  ventilator: group('ventilator', { vt: optionalNumber('VT'), rr: optionalNumber('RR') }).nullish(),
 });
 
 export const caseShape = z.strictObject({
   sample: oneOf('Sample type', ['arterial', 'venous', 'capillary']).nullish(),
   units: unitsSchema.nullish(),
   gas: gasSchema,
-  chemistry: z.strictObject({ ...numbersOf(CHEMISTRY_RANGES) }).nullish(),
-  urine: z.strictObject(numbersOf(URINE_RANGES)).nullish(),
-  patient: z.strictObject({
+  chemistry: group('chemistry', { ...numbersOf(CHEMISTRY_RANGES) }).nullish(),
+  urine: group('urine', numbersOf(URINE_RANGES)).nullish(),
+  patient: group('patient', {
     ...numbersOf(PATIENT_RANGES),
     sex: oneOf('Sex', ['male', 'female']).nullish(),
     pregnant: z.boolean({ error: 'pregnant must be true or false' }).nullish(),
   }).nullish(),
-  context: z.strictObject({
+  context: group('context', {
     ...numbersOf(CONTEXT_RANGES),
     timing: oneOf('Timing', ['acute', 'chronic', 'unknown']).nullish(),
     baseline: baselineSchema.nullish(),
   }).nullish(),
-  oxygen: z.strictObject({ ...numbersOf(OXYGEN_RANGES), fio2: optionalNumber('FiO2') }).nullish(),
-  ventilator: z.strictObject(numbersOf(VENTILATOR_RANGES)).nullish(),
-  settings: z.strictObject({
+  oxygen: group('oxygen', { ...numbersOf(OXYGEN_RANGES), fio2: optionalNumber('FiO2') }).nullish(),
+  ventilator: group('ventilator', numbersOf(VENTILATOR_RANGES)).nullish(),
+  settings: group('settings', {
     ...numbersOf(SETTINGS_RANGES),
     anionGapIncludesK: z.boolean({ error: 'anionGapIncludesK must be true or false' }).nullish(),
   }).nullish(),
@@ -176,7 +184,9 @@ export function rangeText(range: Range, units: Units): string {
   const unit = kind ? unitLabel(kind, units) : range.unit;
   const show = (v: number) => {
     const shown = kind ? fromCanonical(kind, v, units) : v;
-    const decimals = kind && shown !== v ? (Math.abs(shown) < 10 ? 2 : 1) : range.decimals;
+    // a converted limit that is a whole number prints as one (5-70 g/L), else with 2 or 1 decimals by size
+    const whole = Math.abs(shown - Math.round(shown)) < 1e-9;
+    const decimals = kind && shown !== v ? (whole ? 0 : Math.abs(shown) < 10 ? 2 : 1) : range.decimals;
     return shown.toFixed(decimals);
   };
   return `${show(range.min)}-${show(range.max)}${unit ? ' ' + unit : ''}`;
@@ -257,7 +267,7 @@ export const caseSchema = caseShape.superRefine((c, ctx) => {
 });
 
 /** zod issues to the contract's error list. */
-export function toFieldErrors(error: z.ZodError): FieldError[] {
+export function toFieldErrors(error: { issues: readonly z.core.$ZodIssue[] }): FieldError[] {
   const out: FieldError[] = [];
   for (const issue of error.issues) {
     const base = issue.path.map(String);

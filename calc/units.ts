@@ -24,7 +24,7 @@ export const DEFAULT_UNITS: Units = {
   creatinine: 'mg/dL', ethanol: 'mg/dL',
 };
 
-// SI: 1 mmHg = 133.322 Pa, so 1 kPa = 1000 / 133.322 = 7.50062 mmHg.
+// SI: 1 mmHg = 101325 / 760 = 133.3224 Pa (133.322 rounded), so 1 kPa = 760 / 101.325 = 7.50062 mmHg.
 export const MMHG_PER_KPA = 7.50062;
 // Glucose molar mass 180.16 g/mol: mmol/L = mg/dL x 10 / 180.16 = mg/dL / 18.016.
 export const GLUCOSE_MG_DL_PER_MMOL_L = 18.016;
