@@ -141,6 +141,11 @@ export interface AnionGapView {
 
 export interface ClassifyInput {
   ph: number; pco2: number; hco3: number;
+  /** the PCO2 judged against the rules: measured, or the arterial estimate of a venous PCO2 */
+  pco2Basis?: 'measured' | 'venous_estimate';
+  /** for a venous estimate, the span of arterial PCO2 it stands for: an added respiratory process is
+   *  named only when the whole span lies outside the expected band */
+  pco2Range?: Band;
   timing: Timing;
   reference: ReferencePoint;
   anionGap: AnionGapView | null;
@@ -160,6 +165,7 @@ export interface Compensation {
   fit: RespiratoryFit | null;
   acute: Band | null;
   chronic: Band | null;
+  pco2Basis: 'measured' | 'venous_estimate';
 }
 
 export interface Classification {
@@ -240,8 +246,9 @@ export function classify(x: ClassifyInput): Classification {
   if (primary === 'metabolic_acidosis' || primary === 'metabolic_alkalosis') {
     const acid = primary === 'metabolic_acidosis';
     expectedPco2 = acid ? wintersPco2(x.hco3) : metabolicAlkalosisPco2(x.hco3);
-    const verdict = verdictOf(x.pco2, expectedPco2);
-    compensation = { primary, rule: acid ? 'winters' : 'metabolic_alkalosis', timing: x.timing, expected: expectedPco2, observed: x.pco2, verdict, fit: null, acute: null, chronic: null };
+    const span = x.pco2Range ?? { low: x.pco2, high: x.pco2 };
+    const verdict = span.low > expectedPco2.high ? 'above' : span.high < expectedPco2.low ? 'below' : 'within';
+    compensation = { primary, rule: acid ? 'winters' : 'metabolic_alkalosis', timing: x.timing, expected: expectedPco2, observed: x.pco2, verdict, fit: null, acute: null, chronic: null, pco2Basis: x.pco2Basis ?? 'measured' };
     add({ code: primary, detail: acid ? anionGapDetail(x.anionGap) : null, role: 'primary', basis: verdict === 'within' ? 'explains_ph' : normalPhMixedBasis });
     if (verdict === 'above') add({ code: 'respiratory_acidosis', detail: null, role: 'added', basis: 'pco2_above_expected' });
     if (verdict === 'below') add({ code: 'respiratory_alkalosis', detail: null, role: 'added', basis: 'pco2_below_expected' });
@@ -251,7 +258,7 @@ export function classify(x: ClassifyInput): Classification {
     expectedHco3Band = e.band;
     const verdict = verdictOf(x.hco3, e.band);
     const fit = respiratoryFit(x.hco3, e.acute, e.chronic);
-    compensation = { primary, rule: acidosis ? 'respiratory_acidosis' : 'respiratory_alkalosis', timing: x.timing, expected: e.band, observed: x.hco3, verdict, fit, acute: e.acute, chronic: e.chronic };
+    compensation = { primary, rule: acidosis ? 'respiratory_acidosis' : 'respiratory_alkalosis', timing: x.timing, expected: e.band, observed: x.hco3, verdict, fit, acute: e.acute, chronic: e.chronic, pco2Basis: x.pco2Basis ?? 'measured' };
     const chronicBaseline = x.reference.kind === 'baseline' && (x.reference.pco2 > NORMAL.pco2.high || x.reference.pco2 < NORMAL.pco2.low);
     let detail: DisorderDetail | null;
     if (x.timing === 'acute') detail = chronicBaseline ? 'acute_on_chronic' : 'acute';

@@ -1,7 +1,7 @@
 // interpret(case): validate, convert once, compute every finding, and say how each number was reached.
-import { parseCase, type FieldError, type CaseInput, GAS_RANGES, rangeText } from './schema.ts';
+import { parseCase, type FieldError, type CaseInput, GAS_RANGES, VENTILATOR_RANGES, rangeText } from './schema.ts';
 import { canonicalize, type CanonicalCase, type Gas } from './canonical.ts';
-import { mergeSettings, NORMAL, UNIT_SCREEN, OXYGENATION, PHYSIOLOGY, VENTILATION, type Settings } from './reference.ts';
+import { mergeSettings, NORMAL, UNIT_SCREEN, OXYGENATION, PHYSIOLOGY, VENOUS, VENTILATION, type Settings } from './reference.ts';
 import { hendersonBicarbonate, hendersonConsistency, hendersonHasselbalchPh, hydrogenIon, type Consistency } from './acidBase.ts';
 import { classify, referencePoint, wintersPco2, type Band, type Classification, type Compensation, type Disorder, type PhStatus, type ReferencePoint } from './compensation.ts';
 import { albuminCorrectedAnionGap, anionGap, chlorideResponsive, deltaRatio, deltaRatioBand, urineAnionGap, type DeltaBand } from './anionGap.ts';
@@ -232,7 +232,13 @@ function readCase(c: CanonicalCase): Findings {
   const metabolic = emptyMetabolic(s);
   const ag = anionGapPart(c, derived, metabolic, explain);
 
-  const classification: Classification = classify({ ph: g.ph, pco2: g.pco2, hco3: g.hco3, timing: c.context.timing, reference, anionGap: ag });
+  // a venous PCO2 is judged against the rules by its arterial estimate (Byrne et al. 2014, from memory)
+  const venousEstimate = c.sample === 'venous' && g.pco2 >= VENOUS.minPco2;
+  const classification: Classification = classify({
+    ph: g.ph, pco2: venousEstimate ? g.pco2 - VENOUS.pco2Mid : g.pco2, hco3: g.hco3, timing: c.context.timing, reference, anionGap: ag,
+    pco2Basis: venousEstimate ? 'venous_estimate' : 'measured',
+    pco2Range: venousEstimate ? { low: g.pco2 - VENOUS.pco2High, high: g.pco2 - VENOUS.pco2Low } : undefined,
+  });
   derived.expectedPco2 = classification.expectedPco2;
   derived.expectedHco3 = classification.expectedHco3;
   explainCompensation(classification.compensation, reference, explain, gasInputs);
@@ -449,13 +455,14 @@ function oxygenationPart(c: CanonicalCase, d: Derived, explain: Record<string, E
 function venousPart(c: CanonicalCase, flags: Flag[]): Venous | null {
   if (c.sample === 'arterial') return null;
   const g = c.gas;
-  // Byrne et al. 2014 (from memory): venous pH about 0.03 lower, HCO3 about 1 higher, PCO2 about 4-6 mmHg higher.
   const venous = c.sample === 'venous';
   flags.push(flag(venous ? 'venous_sample' : 'capillary_sample', 'warning', { pco2: round(g.pco2, 1) }));
   return {
-    sample: c.sample === 'venous' ? 'venous' : 'capillary',
-    hypercapniaUnlikely: venous && g.pco2 < 45,
-    arterialEstimate: venous ? { ph: round(g.ph + 0.03, 2), pco2Low: round(g.pco2 - 6, 0), pco2High: round(g.pco2 - 4, 0), hco3: round(g.hco3 - 1, 1) } : null,
+    sample: venous ? 'venous' : 'capillary',
+    hypercapniaUnlikely: venous && g.pco2 < VENOUS.hypercapniaBelow,
+    arterialEstimate: venous && g.pco2 >= VENOUS.minPco2
+      ? { ph: round(g.ph + VENOUS.ph, 2), pco2Low: round(g.pco2 - VENOUS.pco2High, 0), pco2High: round(g.pco2 - VENOUS.pco2Low, 0), hco3: round(g.hco3 - VENOUS.hco3, 1) }
+      : null,
   };
 }
 
@@ -533,6 +540,13 @@ function ventilationPart(c: CanonicalCase, d: Derived, explain: Record<string, E
   } else flags.push(flag('no_ventilation_target', 'info', {}));
   d.targetPco2 = target;
   if (target === null) return out;
+  if (target < VENTILATOR_RANGES.targetPco2.min) {
+    // a target below the lowest plausible PaCO2 is not a ventilator setting to suggest
+    flags.push(flag('target_not_reachable', 'warning', { targetPh: v.targetPh, targetPco2: round(target, 1) }));
+    d.targetPco2 = null;
+    delete explain.targetPco2;
+    return out;
+  }
   if (c.sample !== 'arterial') flags.push(flag('suggestion_from_venous_pco2', 'warning', { sample: c.sample }));
 
   if (has(v.rr) && has(v.vt)) {
@@ -550,7 +564,8 @@ function ventilationPart(c: CanonicalCase, d: Derived, explain: Record<string, E
       }
     }
     const lungProtective = d.vtPerKgPbw !== null && d.vtPerKgPbw <= VENTILATION.vtHighPerKg;
-    const hardToReach = rr > VENTILATION.rrMax || (d.suggestedVtPerKgPbw !== null && d.suggestedVtPerKgPbw > VENTILATION.vtHighPerKg);
+    // permissive hypercapnia is worth weighing only when neither route reaches the target within limits
+    const hardToReach = rr > VENTILATION.rrMax && (d.suggestedVtPerKgPbw === null || d.suggestedVtPerKgPbw > VENTILATION.vtHighPerKg);
     if (lungProtective && hardToReach && target < g.pco2) flags.push(flag('permissive_hypercapnia_possible', 'info', { pco2: round(g.pco2, 1), target: round(target, 1) }));
   }
 

@@ -60,6 +60,11 @@ export const PHYSIOLOGY = {
   alveolarConstant: 0.863,       // West
 } as const;
 
+/** Peripheral venous against arterial (Byrne et al. 2014, from memory): pH about 0.03 lower, HCO3 about
+ * 1 higher, PCO2 about 4-6 mmHg higher with limits of agreement near +/- 20; venous PCO2 below 45 makes arterial hypercapnia unlikely.
+ * Below `minPco2` the fixed offset is not applied (it would leave an implausible arterial value). */
+export const VENOUS = { ph: 0.03, hco3: 1, pco2Low: 4, pco2High: 6, pco2Mid: 5, pco2Limits: 20, hypercapniaBelow: 45, minPco2: 15 } as const;
+
 /** Lung-protective ventilation thresholds. */
 export const VENTILATION = {
   vtTargetPerKg: 6, vtLowPerKg: 4, vtHighPerKg: 8, // ARDS Network 2000

@@ -64,11 +64,20 @@ describe('the target PaCO2 and the settings to reach it', () => {
     expect(f.derived.suggestedVtPerKgPbw).toBe(7.8);
   });
 
-  it('lung-protective VT with a target out of safe reach: permissive_hypercapnia_possible, and the suggested RR above 35', () => {
+  it('the rate route beyond 35/min but the volume route within 8 mL/kg: no permissive-hypercapnia flag', () => {
     const f = read(ards);
-    expect(codes(f)).toContain('permissive_hypercapnia_possible');
     expect(f.flags.find((x) => x.code === 'rr_above_35')?.values).toMatchObject({ which: 'suggested', rr: 44 });
+    // VT_new = VD + (VT - VD) x 65 / 44.6 with VD = 2.2 x 52.4 = 115: 115 + 205 x 1.457 = 414 -> 410 mL, 7.8 mL/kg
+    expect(f.derived.suggestedVt).toBe(410);
+    expect(codes(f)).not.toContain('permissive_hypercapnia_possible');
     expect(codes(f)).not.toContain('driving_pressure_above_15'); // 28 - 14 = 14
+  });
+
+  it('lung-protective VT with a target out of safe reach by both routes: permissive_hypercapnia_possible', () => {
+    const f = read({ ...ards, ventilator: { ...ards.ventilator, vt: 380 } });
+    // RR 30 x 65 / 44.6 = 44 /min; VT 115 + 265 x 1.457 = 501 -> 500 mL = 9.5 mL/kg PBW: both beyond limits
+    expect(f.derived).toMatchObject({ suggestedRr: 44, suggestedVt: 500 });
+    expect(codes(f)).toEqual(expect.arrayContaining(['rr_above_35', 'vt_above_8_ml_per_kg', 'permissive_hypercapnia_possible']));
   });
 
   it('every suggestion comes with a recheck 20-30 minutes later (common practice)', () => {

@@ -1,0 +1,120 @@
+// The note: Findings in, words out. Wording and order live in the .njk files beside this one; a department
+// may override any of them with a file of the same name in its own folder (NOTE_TEMPLATES).
+import nunjucks from 'nunjucks';
+import { readdirSync, statSync } from 'node:fs';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import type { Findings, Flag } from '../calc/index.ts';
+import { formatter } from './format.ts';
+import { flagView } from './flagView.ts';
+import { buildView, type NoteFormat } from './view.ts';
+
+export interface Note { line: string; text: string; handover: string; format: 'text' | 'markdown' }
+
+export interface NoteRenderer {
+  render(findings: Findings, options?: { format?: 'text' | 'markdown' }): Note;
+  /** one sentence per flag, used for the API's flags[].message */
+  flagMessage(flag: Flag, findings: Findings): string;
+}
+
+/** The default templates: this folder. */
+export const DEFAULT_TEMPLATE_DIR = path.dirname(fileURLToPath(import.meta.url));
+
+/** The templates the renderer calls by name; the others are imported or included by these. */
+const ENTRY = { line: 'line.njk', note: 'note.njk', handover: 'handover.njk' } as const;
+const FLAG_MESSAGE_SOURCE = '{% import "flag.njk" as fl %}{{ fl.message(flag) }}';
+
+/**
+ * Whitespace inside a paragraph becomes single spaces; no space is left before punctuation, and a sentence
+ * that a template tag ran into the next one gets its space back.
+ */
+export function paragraph(value: unknown): string {
+  return String(value ?? '')
+    .replace(/\s+/g, ' ')
+    .replace(/\s+([,.;:)])/g, '$1')
+    .replace(/\(\s+/g, '(')
+    .replace(/([.;:])(?=[A-Z])/g, '$1 ')
+    .trim();
+}
+
+/** First letter up, the rest untouched (unlike nunjucks' capitalize, which would spoil "PaCO2"). */
+export function sentenceCase(value: unknown): string {
+  const text = String(value ?? '').trim();
+  return text.charAt(0).toUpperCase() + text.slice(1);
+}
+
+/** Trailing spaces go, runs of blank lines shrink to one. */
+function tidy(text: string): string {
+  return text
+    .split('\n').map((l) => l.replace(/\s+$/, '')).join('\n')
+    .replace(/\n{3,}/g, '\n\n')
+    .trim();
+}
+
+function templateFiles(dir: string, prefix = ''): string[] {
+  const out: string[] = [];
+  for (const entry of readdirSync(path.join(dir, prefix), { withFileTypes: true })) {
+    const name = prefix ? `${prefix}/${entry.name}` : entry.name;
+    if (entry.isDirectory()) out.push(...templateFiles(dir, name));
+    else if (entry.isFile() && entry.name.endsWith('.njk')) out.push(name);
+  }
+  return out;
+}
+
+function checkFolder(dir: string): string {
+  const resolved = path.resolve(dir);
+  let ok = false;
+  try { ok = statSync(resolved).isDirectory(); } catch { ok = false; }
+  if (!ok) throw new Error(`Note template folder "${dir}" does not exist or is not a folder (check NOTE_TEMPLATES)`);
+  return resolved;
+}
+
+function isFindings(x: unknown): x is Findings {
+  return typeof x === 'object' && x !== null && (x as { ok?: unknown }).ok === true && 'derived' in x && 'case' in x;
+}
+
+/**
+ * One nunjucks environment per renderer. Every template is read and compiled here, once; a render reads no file.
+ * A template that prints a missing value throws (throwOnUndefined), so a gap in the data never reaches a note.
+ */
+export function createNoteRenderer(options: { templateDir?: string | null } = {}): NoteRenderer {
+  const departmentDir = options.templateDir ? checkFolder(options.templateDir) : null;
+  const searchPaths = departmentDir && departmentDir !== DEFAULT_TEMPLATE_DIR ? [departmentDir, DEFAULT_TEMPLATE_DIR] : [DEFAULT_TEMPLATE_DIR];
+  const loader = new nunjucks.FileSystemLoader(searchPaths, { noCache: false, watch: false });
+  const env = new nunjucks.Environment(loader, { autoescape: false, throwOnUndefined: true, trimBlocks: true, lstripBlocks: true });
+  env.addFilter('para', paragraph);
+  env.addFilter('sentence', sentenceCase);
+  env.addFilter('known', (items: unknown) => (Array.isArray(items) ? items.filter((x) => x !== null && x !== undefined && String(x).trim() !== '') : []));
+  env.addFilter('knownPairs', (pairs: unknown) => (Array.isArray(pairs)
+    ? pairs.filter((p) => Array.isArray(p) && p[1] !== null && p[1] !== undefined && String(p[1]).trim() !== '')
+    : []));
+
+  // read and compile everything now, the department's files and the defaults alike
+  const names = new Set<string>(searchPaths.flatMap((dir) => templateFiles(dir)));
+  for (const name of names) env.getTemplate(name, true);
+  const line = env.getTemplate(ENTRY.line, true);
+  const note = env.getTemplate(ENTRY.note, true);
+  const handover = env.getTemplate(ENTRY.handover, true);
+  const flagMessageTemplate = new nunjucks.Template(FLAG_MESSAGE_SOURCE, env, 'flag-message', true);
+
+  return {
+    render(findings, renderOptions = {}) {
+      if (!isFindings(findings)) throw new TypeError('render() needs the findings of an accepted case (interpret() returned errors)');
+      const format: NoteFormat = renderOptions.format ?? 'text';
+      if (format !== 'text' && format !== 'markdown') throw new TypeError(`Unknown note format "${String(format)}": use "text" or "markdown"`);
+      const v = buildView(findings, format);
+      const oneLine = paragraph(line.render({ v }));
+      return {
+        line: oneLine,
+        text: tidy(note.render({ v, line: oneLine })),
+        handover: tidy(handover.render({ v })),
+        format,
+      };
+    },
+    flagMessage(flag, findings) {
+      if (!isFindings(findings)) throw new TypeError('flagMessage() needs the findings the flag came from');
+      const view = flagView(flag, findings, formatter(findings.units));
+      return paragraph(flagMessageTemplate.render({ flag: view, v: { md: false } }));
+    },
+  };
+}
