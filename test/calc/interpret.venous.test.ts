@@ -11,25 +11,25 @@ const read = (c: unknown): Findings => {
 const named = (f: Findings) => f.disorders.map((d) => d.code);
 
 // Invented: a 19-year-old in the emergency department with ketoacidosis, venous gas.
-const ketoacidosis = { gas: { ph: 7.15, pco2: 25, hco3: 10 }, chemistry: { na: 134, cl: 98, albumin: 4.2 } };
+const ketoacidosis = { gas: { ph: 7.15, pco2: 25, hco3: 8.5 }, chemistry: { na: 134, cl: 98, albumin: 4.2 } };
 
 describe('venous compensation judgement', () => {
-  it('Winters 1.5 x 10 + 8 = 23 +/- 2: a venous PCO2 of 25 (arterial about 19-21) fits it', () => {
+  it('Winters 1.5 x 8.5 + 8 = 20.75 +/- 2: a venous PCO2 of 25 (arterial about 19-21) fits it', () => {
     const f = read({ ...ketoacidosis, sample: 'venous' });
-    expect(f.compensation).toMatchObject({ rule: 'winters', expected: { low: 21, high: 25 }, verdict: 'within', pco2Basis: 'venous_estimate' });
+    expect(f.compensation).toMatchObject({ rule: 'winters', expected: { low: 18.75, high: 22.75 }, verdict: 'within', pco2Basis: 'venous_estimate' });
     expect(named(f)).toEqual(['metabolic_acidosis']);
   });
 
   it('the same numbers as an arterial gas are judged as measured', () => {
-    const f = read({ ...ketoacidosis, sample: 'arterial', gas: { ...ketoacidosis.gas, pco2: 28 } });
-    // arterial PaCO2 28 > 25: added respiratory acidosis (Albert, Dell and Winters 1967)
+    const f = read({ ...ketoacidosis, sample: 'arterial', gas: { ph: 7.10, pco2: 28, hco3: 8.5 } });
+    // arterial PaCO2 28 > 22.75: added respiratory acidosis (Albert, Dell and Winters 1967)
     expect(f.compensation).toMatchObject({ verdict: 'above', pco2Basis: 'measured' });
     expect(named(f)).toEqual(['metabolic_acidosis', 'respiratory_acidosis']);
   });
 
   it('a venous PCO2 well above the band still names the added respiratory acidosis', () => {
-    // venous 34 -> arterial about 28-30, all above 25
-    const f = read({ ...ketoacidosis, sample: 'venous', gas: { ph: 7.05, pco2: 34, hco3: 10 } });
+    // venous 34 -> arterial about 28-30, all above 1.5 x 9.2 + 8 + 2 = 23.8
+    const f = read({ ...ketoacidosis, sample: 'venous', gas: { ph: 7.05, pco2: 34, hco3: 9.2 } });
     expect(named(f)).toContain('respiratory_acidosis');
   });
 

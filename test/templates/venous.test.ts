@@ -1,0 +1,31 @@
+// A venous gas: the note says that compensation was judged from the arterial estimate of the venous PCO2
+// (Byrne AL et al., Respirology 2014: venous PCO2 about 4-6 mmHg above arterial; from memory).
+import { describe, expect, it } from 'vitest';
+import { interpret, type Findings } from '../../calc/index.ts';
+import { createNoteRenderer } from '../../templates/index.ts';
+
+const renderer = createNoteRenderer();
+const read = (c: unknown): Findings => {
+  const f = interpret(c);
+  if (!f.ok) throw new Error(JSON.stringify(f.errors));
+  return f;
+};
+
+describe('venous compensation wording', () => {
+  it('metabolic acidosis: names the venous value and its arterial estimate', () => {
+    // invented: ketoacidosis in the emergency department; Winters 1.5 x 8.5 + 8 = 20.75 +/- 2
+    const text = renderer.render(read({ sample: 'venous', gas: { ph: 7.15, pco2: 25, hco3: 8.5 } })).text;
+    expect(text).toContain('the venous PCO2 of 25 mmHg stands for an arterial PCO2 of about 19-21 mmHg, which is within it');
+    expect(text).not.toMatch(/which is(within|above|below)/);
+  });
+
+  it('respiratory acidosis: says the expected HCO3 came from the arterial estimate', () => {
+    const text = renderer.render(read({ sample: 'venous', gas: { ph: 7.30, pco2: 62, hco3: 30 } })).text;
+    expect(text).toContain('62 mmHg venous, about 56-58 mmHg arterial');
+  });
+
+  it('an arterial gas says nothing of the kind', () => {
+    const text = renderer.render(read({ sample: 'arterial', gas: { ph: 7.30, pco2: 62, hco3: 30 } })).text;
+    expect(text).not.toContain('arterial estimate');
+  });
+});
