@@ -50,7 +50,7 @@ export interface NoteView {
     /** a venous PCO2 judged by its arterial estimate: the measured value and the estimated arterial span */
     venous: { measured: Text; arterial: Text } | null;
   } | null;
-  reference: { kind: string; pco2: Text; hco3: Text; pco2Band: Text; hco3Band: Text; pco2Estimated: boolean; hco3Estimated: boolean };
+  reference: { kind: string; pco2: Text; hco3: Text; pco2Band: Text; hco3Band: Text; pco2Estimated: boolean; hco3Estimated: boolean; usualPhIgnored: boolean };
   consistency: { reported: Text; calculated: Text } | null;
   anionGap: { value: Text; corrected: Text; usedCorrected: boolean; albumin: Text; includesK: boolean; upper: Text; raised: boolean; used: Text } | null;
   deltaRatio: { value: Text; band: string; usesCorrected: boolean; limits: { normal: Text; mixed: Text; high: Text } } | null;
@@ -311,7 +311,7 @@ export function buildView(f: Findings, format: NoteFormat): NoteView {
     disorders: withheld ? [] : f.disorders.map(disorderView),
     compensation,
     reference: {
-      kind: ref.kind, pco2: fmt.pressure(ref.pco2), hco3: fmt.mmol(ref.hco3),
+      kind: ref.kind, pco2: fmt.pressure(ref.pco2), hco3: fmt.mmol(ref.hco3), usualPhIgnored: ref.usualPhIgnored,
       pco2Band: fmt.pressureBand(ref.pco2Band), hco3Band: fmt.mmolBand(ref.hco3Band),
       pco2Estimated: ref.estimated.pco2, hco3Estimated: ref.estimated.hco3,
     },

@@ -29,3 +29,12 @@ describe('venous compensation wording', () => {
     expect(text).not.toContain('arterial estimate');
   });
 });
+
+describe('a usual pH that cannot be used', () => {
+  it('says why the baseline was not estimated', () => {
+    // invented: ketoacidosis with a usual pH given; the current low HCO3 is no chronic compensation
+    const f = read({ gas: { ph: 7.18, pco2: 18, hco3: 6.5 }, context: { baseline: { ph: 7.40 } } });
+    expect(f.reference.usualPhIgnored).toBe(true);
+    expect(renderer.render(f).text).toContain('The usual pH was not used to estimate a baseline');
+  });
+});
