@@ -1,14 +1,14 @@
 // interpret(case): validate, convert once, compute every finding, and say how each number was reached.
 import { parseCase, type FieldError, type CaseInput, GAS_RANGES, VENTILATOR_RANGES, rangeText } from './schema.ts';
 import { canonicalize, type CanonicalCase, type Gas } from './canonical.ts';
-import { mergeSettings, NORMAL, UNIT_SCREEN, OXYGENATION, PHYSIOLOGY, VENOUS, VENTILATION, type Settings } from './reference.ts';
+import { mergeSettings, NORMAL, SERIAL, UNIT_SCREEN, OXYGENATION, PHYSIOLOGY, VENOUS, VENTILATION, type Settings } from './reference.ts';
 import { hendersonBicarbonate, hendersonConsistency, hendersonHasselbalchPh, hydrogenIon, type Consistency } from './acidBase.ts';
 import { classify, referencePoint, wintersPco2, type Band, type Classification, type Compensation, type Disorder, type PhStatus, type ReferencePoint } from './compensation.ts';
 import { albuminCorrectedAnionGap, anionGap, chlorideResponsive, deltaRatio, deltaRatioBand, urineAnionGap, type DeltaBand } from './anionGap.ts';
 import { calculatedOsmolality, lactateBand, osmolarGap, osmolarGapRaised, type LactateBand } from './osmolality.ts';
 import { apparentStrongIonDifference, effectiveStrongIonDifference, physicochemicalPartition, standardBaseExcess, strongIonGap } from './physicochemical.ts';
 import { aaGradient, alveolarPo2, barometricPressureAtAltitude, expectedAaGradient, oxygenContent, oxygenationLevel, pfBand, pfRatio, sfMeetsCriterion, sfRatio, type OxygenationLevel, type PfBand } from './oxygenation.ts';
-import { alveolarVentilation, co2ProductionEstimate, drivingPressure, estimatedDeadSpace, minuteVentilation, predictedBodyWeight, rrForTarget, targetPco2Buffered, targetPco2Simple, ventilatoryRatio, vtForTarget, vtPerKg } from './ventilation.ts';
+import { alveolarVentilation, co2ProductionEstimate, predictedPco2AfterChange, drivingPressure, estimatedDeadSpace, minuteVentilation, predictedBodyWeight, rrForTarget, targetPco2Buffered, targetPco2Simple, ventilatoryRatio, vtForTarget, vtPerKg } from './ventilation.ts';
 import { bySeverity, flag, type Flag } from './flags.ts';
 import { explanation, input, round, type Explanation } from './explain.ts';
 import { type Units } from './units.ts';
@@ -31,6 +31,7 @@ export interface Derived {
   predictedBodyWeightKg: N; vtPerKgPbw: N; drivingPressure: N;
   deadSpaceMl: N; minuteVentilation: N; alveolarVentilation: N; co2Production: N; ventilatoryRatio: N;
   targetPco2: N; targetPco2Simple: N; suggestedRr: N; suggestedVt: N; suggestedVtPerKgPbw: N;
+  predictedPco2: N;
 }
 
 export interface Metabolic {
@@ -84,6 +85,18 @@ export interface PreviousGas {
 
 export interface Change { field: 'ph' | 'pco2' | 'hco3' | 'po2' | 'lactate'; from: number; to: number; change: number }
 
+export interface Serial {
+  /** the latest earlier gas */
+  last: PreviousGas;
+  ventilatorChanged: boolean;
+  /** the alveolar ventilation equation applied to the change, when the settings allow */
+  prediction: {
+    vaBefore: number; vaNow: number; predicted: number; observed: number; difference: number;
+    verdict: 'as_predicted' | 'higher' | 'lower';
+  } | null;
+  predictionUnavailable: 'settings_unchanged' | 'settings_missing' | 'dead_space_unknown' | null;
+}
+
 export interface Findings {
   ok: true;
   withheld: boolean;
@@ -101,6 +114,7 @@ export interface Findings {
   venous: Venous | null;
   previous: PreviousGas[];
   changes: Change[];
+  serial: Serial | null;
   flags: Flag[];
   explain: Record<string, Explanation>;
 }
@@ -163,6 +177,7 @@ function emptyDerived(hPlus: number, gas: Gas): Derived {
     predictedBodyWeightKg: null, vtPerKgPbw: null, drivingPressure: null,
     deadSpaceMl: null, minuteVentilation: null, alveolarVentilation: null, co2Production: null, ventilatoryRatio: null,
     targetPco2: null, targetPco2Simple: null, suggestedRr: null, suggestedVt: null, suggestedVtPerKgPbw: null,
+    predictedPco2: null,
   };
 }
 
@@ -202,8 +217,8 @@ function readCase(c: CanonicalCase): Findings {
   const reference = withheld ? referencePoint(null, c.patient.pregnant, g.hco3) : referencePoint(c.context.baseline, c.patient.pregnant, g.hco3, g.pco2);
   const base: Omit<Findings, 'phStatus' | 'consistency' | 'compensation' | 'disorders' | 'metabolic' | 'oxygenation' | 'ventilation' | 'venous' | 'withheld'> = {
     ok: true, units: c.units, case: c, reference, derived, flags, explain,
-    previous: c.previous.map((p) => ({ ...p, hPlus: hydrogenIon(p.gas.ph) })),
-    changes: [],
+    previous: inTimeOrder(c.previous).map((p) => ({ ...p, hPlus: hydrogenIon(p.gas.ph) })),
+    changes: [], serial: null,
   };
 
   // A likely unit slip: ask, compute nothing from the pressure (clinical-scope section 3).
@@ -260,6 +275,7 @@ function readCase(c: CanonicalCase): Findings {
     ...base, withheld: false, phStatus: classification.phStatus, consistency, compensation: classification.compensation,
     disorders: classification.disorders, metabolic, oxygenation, ventilation, venous,
     changes: changesSince(c),
+    serial: serialPart(c, base.previous.at(-1) ?? null, derived, explain),
   }, false);
 }
 
@@ -607,8 +623,15 @@ function criticalFlags(c: CanonicalCase, flags: Flag[], withheld: boolean) {
   if (has(g.lactate) && g.lactate >= k.lactateHigh) crit('lactate', g.lactate, k.lactateHigh, 'above');
 }
 
+/** Earlier gases in time order: by takenAt when every one has an ISO date and time, else as entered. */
+export function inTimeOrder<T extends { takenAt: string | null }>(gases: T[]): T[] {
+  const iso = /^\d{4}-\d{2}-\d{2}([T ]\d{2}:\d{2}(:\d{2})?)?/;
+  if (!gases.every((g) => g.takenAt !== null && iso.test(g.takenAt))) return gases;
+  return gases.map((g, i) => ({ g, i })).sort((a, b) => (a.g.takenAt! < b.g.takenAt! ? -1 : a.g.takenAt! > b.g.takenAt! ? 1 : a.i - b.i)).map((x) => x.g);
+}
+
 function changesSince(c: CanonicalCase): Change[] {
-  const last = c.previous.at(-1);
+  const last = inTimeOrder(c.previous).at(-1);
   if (!last) return [];
   const out: Change[] = [];
   const fields = ['ph', 'pco2', 'hco3', 'po2', 'lactate'] as const;
@@ -619,6 +642,31 @@ function changesSince(c: CanonicalCase): Change[] {
   return out;
 }
 
+/** Did the new PaCO2 follow the ventilator change as the alveolar ventilation equation predicts (West)? */
+function serialPart(c: CanonicalCase, last: PreviousGas | null, d: Derived, explain: Record<string, Explanation>): Serial | null {
+  if (!last) return null;
+  const v = c.ventilator;
+  const out: Serial = { last, ventilatorChanged: false, prediction: null, predictionUnavailable: null };
+  if (!v || !has(v.vt) || !has(v.rr) || !has(last.vt) || !has(last.rr)) {
+    out.predictionUnavailable = 'settings_missing';
+    return out;
+  }
+  out.ventilatorChanged = v.vt !== last.vt || v.rr !== last.rr;
+  if (!out.ventilatorChanged) { out.predictionUnavailable = 'settings_unchanged'; return out; }
+  // with VT unchanged, VA scales with RR whatever the dead space; otherwise the dead space per breath is needed
+  const vd = d.deadSpaceMl ?? (v.vt === last.vt ? 0 : null);
+  if (vd === null || last.vt - vd <= 0 || v.vt - vd <= 0) { out.predictionUnavailable = 'dead_space_unknown'; return out; }
+  const vaBefore = alveolarVentilation(last.rr, last.vt, vd), vaNow = alveolarVentilation(v.rr, v.vt, vd);
+  const predicted = predictedPco2AfterChange(last.gas.pco2, vaBefore, vaNow);
+  const observed = c.gas.pco2, difference = observed - predicted;
+  const tolerance = Math.max(SERIAL.pco2Absolute, SERIAL.pco2Relative * predicted);
+  out.prediction = { vaBefore, vaNow, predicted, observed, difference, verdict: Math.abs(difference) <= tolerance ? 'as_predicted' : difference > 0 ? 'higher' : 'lower' };
+  d.predictedPco2 = predicted;
+  explain.predictedPco2 = explanation('predictedPco2', 'PaCO2 predicted after the ventilator change', round(predicted, 1), 'mmHg', 'PaCO2_new = PaCO2_before x VA_before / VA_now, VA = RR x (VT - VD)',
+    [input('PaCO2 before', round(last.gas.pco2, 1), 'mmHg'), input('RR before', last.rr, '/min'), input('VT before', last.vt, 'mL'), input('RR now', v.rr, '/min'), input('VT now', v.vt, 'mL'), input(d.deadSpaceMl === null ? 'VD (cancels out: VT unchanged)' : 'VD', round(vd, 0), 'mL')], 'west');
+  return out;
+}
+
 const DECIMALS: Partial<Record<keyof Derived, number>> = {
   hPlus: 1, hco3Henderson: 1, phHendersonHasselbalch: 2, anionGap: 1, anionGapCorrected: 1, deltaRatio: 2,
   standardBaseExcess: 1, sodiumChlorideEffect: 1, albuminEffect: 1, unmeasuredIonEffect: 1,
@@ -626,6 +674,7 @@ const DECIMALS: Partial<Record<keyof Derived, number>> = {
   barometricPressure: 0, alveolarPo2: 1, aaGradient: 1, aaGradientExpected: 0, pfRatio: 0, sfRatio: 0, oxygenContent: 1,
   predictedBodyWeightKg: 1, vtPerKgPbw: 1, drivingPressure: 0, deadSpaceMl: 0, minuteVentilation: 1, alveolarVentilation: 1,
   co2Production: 0, ventilatoryRatio: 2, targetPco2: 1, targetPco2Simple: 1, suggestedRr: 0, suggestedVt: 0, suggestedVtPerKgPbw: 1,
+  predictedPco2: 1,
 };
 
 function roundDerived(d: Derived) {

@@ -65,6 +65,11 @@ export const PHYSIOLOGY = {
  * Below `minPco2` the fixed offset is not applied (it would leave an implausible arterial value). */
 export const VENOUS = { ph: 0.03, hco3: 1, pco2Low: 4, pco2High: 6, pco2Mid: 5, pco2Limits: 20, hypercapniaBelow: 45, minPco2: 15 } as const;
 
+/** Serial gases: an observed PaCO2 within the larger of 3 mmHg or 10% of the one predicted by the alveolar
+ * ventilation equation counts as "as predicted" (our own tolerance for analyser and sampling variation;
+ * common practice). */
+export const SERIAL = { pco2Absolute: 3, pco2Relative: 0.10 } as const;
+
 /** Lung-protective ventilation thresholds. */
 export const VENTILATION = {
   vtTargetPerKg: 6, vtLowPerKg: 4, vtHighPerKg: 8, // ARDS Network 2000

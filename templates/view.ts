@@ -239,7 +239,9 @@ export function buildView(f: Findings, format: NoteFormat): NoteView {
     items: f.changes.map((x) => ({
       label: x.field === 'ph' ? 'pH' : x.field === 'pco2' ? co2Label(c.sample) : x.field === 'hco3' ? 'HCO3' : x.field === 'po2' ? o2Label(c.sample) : 'lactate',
       from: gasNumber(fmt, x.field, x.from), to: gasText(fmt, x.field, x.to),
+      change: x.change === 0 ? null : `${x.change > 0 ? '+' : '-'}${gasText(fmt, x.field, Math.abs(x.change))}`,
     })),
+    ventilator: serialView(f, fmt),
   } : null;
 
   const raisedGap = hasDisorder('metabolic_acidosis', 'high_anion_gap');
@@ -345,3 +347,20 @@ export function buildView(f: Findings, format: NoteFormat): NoteView {
   };
 }
 
+
+/** The ventilator change between the two gases and what the alveolar ventilation equation predicted. */
+function serialView(f: Findings, fmt: Formatter) {
+  const serial = f.serial;
+  const v = f.case.ventilator;
+  if (!serial || !serial.ventilatorChanged || !v) return null;
+  const last = serial.last;
+  const p = serial.prediction;
+  return {
+    before: `RR ${fmt.plain(last.rr, 0)}/min, VT ${fmt.plain(last.vt, 0)} mL`,
+    now: `RR ${fmt.plain(v.rr, 0)}/min, VT ${fmt.plain(v.vt, 0)} mL`,
+    predicted: p ? fmt.pressure(p.predicted) : null,
+    observed: p ? fmt.pressure(p.observed) : null,
+    verdict: p ? p.verdict : null,
+    unavailable: serial.predictionUnavailable,
+  };
+}

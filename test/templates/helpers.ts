@@ -68,6 +68,8 @@ export function unitlessNumbers(text: string): string[] {
       if (new RegExp(String.raw`^ to ${NUMBER} ?${UNIT}`).test(after)) continue;
       // a pH range or a pH limit: "pH 7.22 to 7.31", "pH 7.10 (below 7.20)"
       if (/pH( of)? \d\.\d\d( is)? (to|\(?(below|above|at or above)( the limit of)?)$/.test(before)) continue;
+      // the signed change after a pH pair: "pH 7.22 to 7.31 (+0.09)"
+      if (/pH \d\.\d\d to \d\.\d\d \([+-]$/.test(before)) continue;
       out.push(`${m[0]} in "${s.trim()}"`);
     }
   }

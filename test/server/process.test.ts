@@ -1,0 +1,124 @@
+// The real server process: default bind, the warning for a wider bind, the cluster start command, and
+// that no value from a case reaches stdout, stderr or disk.
+import { afterAll, describe, expect, it } from 'vitest';
+import { spawn, type ChildProcess } from 'node:child_process';
+import { createServer } from 'node:net';
+import { readdirSync, readFileSync, statSync } from 'node:fs';
+import { join } from 'node:path';
+import { tmpdir } from 'node:os';
+
+const root = new URL('../..', import.meta.url).pathname;
+const children: ChildProcess[] = [];
+afterAll(() => { for (const child of children) child.kill('SIGTERM'); });
+
+function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const srv = createServer();
+    srv.listen(0, '127.0.0.1', () => {
+      const address = srv.address();
+      srv.close(() => (typeof address === 'object' && address ? resolve(address.port) : reject(new Error('no port'))));
+    });
+  });
+}
+
+interface Running { child: ChildProcess; out: () => string; err: () => string; base: string }
+
+async function start(script: string, env: Record<string, string>, readyCount = 1): Promise<Running> {
+  const port = env.PORT ?? String(await freePort());
+  const child = spawn(process.execPath, ['--import', 'tsx', script], {
+    cwd: root, env: { ...process.env, ...env, PORT: port }, stdio: ['ignore', 'pipe', 'pipe'],
+  });
+  children.push(child);
+  let out = '', err = '';
+  child.stdout!.on('data', (b: Buffer) => { out += b.toString(); });
+  child.stderr!.on('data', (b: Buffer) => { err += b.toString(); });
+  await new Promise<void>((resolve, reject) => {
+    const timer = setTimeout(() => reject(new Error(`not ready in 15 s: ${out} ${err}`)), 15_000);
+    const check = () => {
+      if ((out.match(/listening on/g) ?? []).length >= readyCount) { clearTimeout(timer); resolve(); }
+    };
+    child.stdout!.on('data', check);
+    child.on('exit', (code) => { clearTimeout(timer); reject(new Error(`exited ${code}: ${err}`)); });
+  });
+  const host = env.HOST ?? '127.0.0.1';
+  return { child, out: () => out, err: () => err, base: `http://${host}:${port}` };
+}
+
+const stop = (r: Running) => new Promise<void>((resolve) => { r.child.once('exit', () => resolve()); r.child.kill('SIGTERM'); });
+
+describe('binding', () => {
+  it('binds 127.0.0.1 by default, without a warning', async () => {
+    const r = await start('server/main.ts', {});
+    expect(r.out()).toMatch(/listening on http:\/\/127\.0\.0\.1:\d+/);
+    expect(r.err()).not.toMatch(/WARNING/);
+    expect((await fetch(r.base + '/healthz')).status).toBe(200);
+    await stop(r);
+  });
+
+  it('a HOST other than loopback-by-default prints the no-login warning', async () => {
+    // 127.0.0.2 is still loopback, so nothing leaves the machine, but it is not the default bind
+    const r = await start('server/main.ts', { HOST: '127.0.0.2' });
+    expect(r.err()).toMatch(/WARNING: listening on 127\.0\.0\.2.*no login of its own.*hospital's authentication/);
+    await stop(r);
+  });
+});
+
+describe('several processes (npm run start:cluster)', () => {
+  it('starts the requested number of workers on one port and answers', async () => {
+    const r = await start('server/cluster.ts', { WORKERS: '2' }, 2);
+    expect(r.out()).toMatch(/starting 2 worker processes/);
+    const answers = await Promise.all(Array.from({ length: 8 }, () => fetch(r.base + '/healthz').then((res) => res.status)));
+    expect(answers.every((s) => s === 200)).toBe(true);
+    await stop(r);
+  });
+});
+
+describe('no patient data at rest or in logs', () => {
+  it('request logs hold method, path, status and time only', async () => {
+    const started = Date.now();
+    const r = await start('server/main.ts', {});
+    // invented values chosen to be unmistakable in any output
+    const marker = { ph: 7.137, pco2: 51.37, hco3: 16.913, na: 137.77, label: 'ZQX-previous-label' };
+    const body = {
+      gas: { ph: marker.ph, pco2: marker.pco2, hco3: marker.hco3 },
+      chemistry: { na: marker.na, cl: 101 },
+      previous: [{ label: marker.label, gas: { ph: 7.2, pco2: 45, hco3: 17 } }],
+    };
+    const ok = await fetch(r.base + '/api/interpret', { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(body) });
+    expect(ok.status).toBe(200);
+    const bad = await fetch(r.base + '/api/interpret', { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ gas: { ph: 9.137, pco2: marker.pco2 } }) });
+    expect(bad.status).toBe(422);
+    const broken = await fetch(r.base + '/api/interpret', { method: 'POST', headers: { 'content-type': 'application/json' }, body: `{"gas":{"ph":${marker.ph},` });
+    expect(broken.status).toBe(400);
+    await stop(r);
+
+    const output = r.out() + r.err();
+    for (const value of ['7.137', '51.37', '16.913', '137.77', '9.137', marker.label]) expect(output).not.toContain(value);
+    // each request line is method, path, status, time
+    const lines = output.split('\n').filter((l) => l.startsWith('POST'));
+    expect(lines).toHaveLength(3);
+    for (const line of lines) expect(line).toMatch(/^POST \/api\/interpret \d{3} \d+\.\dms$/);
+
+    // nothing written to disk: no file in the project (outside node_modules) or the temp folder changed since
+    // the server started holds any of the values
+    const changed = (dir: string, depth: number): string[] => {
+      const found: string[] = [];
+      let entries: string[] = [];
+      try { entries = readdirSync(dir); } catch { return found; }
+      for (const name of entries) {
+        if (name === 'node_modules' || name === '.git') continue;
+        const path = join(dir, name);
+        let st;
+        try { st = statSync(path); } catch { continue; }
+        if (st.isDirectory() && depth > 0) found.push(...changed(path, depth - 1));
+        else if (st.isFile() && st.mtimeMs >= started && st.size < 5_000_000) found.push(path);
+      }
+      return found;
+    };
+    for (const file of [...changed(root, 4), ...changed(tmpdir(), 1)]) {
+      let text = '';
+      try { text = readFileSync(file, 'utf8'); } catch { continue; }
+      for (const value of ['51.37', '16.913', '137.77', marker.label]) expect(text, file).not.toContain(value);
+    }
+  });
+});
