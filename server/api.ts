@@ -5,13 +5,16 @@ import { zValidator } from '@hono/zod-validator';
 import { caseSchema, interpret, toFieldErrors, type Findings, type InterpretOptions } from '../calc/index.ts';
 import type { NoteRenderer } from '../templates/index.ts';
 import { BODY_LIMIT_BYTES, jsonError } from './errors.ts';
+import { caseFromFhir, type FhirResult } from './intake/index.ts';
 
 export interface ApiDeps {
   renderer: NoteRenderer;
   interpretOptions?: InterpretOptions;
 }
 
-const JSON_TYPES = new Set(['application/json']);
+const JSON_TYPE = 'application/json';
+const FHIR_TYPE = 'application/fhir+json';
+const SAMPLES = new Set(['arterial', 'venous', 'capillary']);
 
 export const mediaType = (c: Context): string => (c.req.header('content-type') ?? '').split(';')[0]!.trim().toLowerCase();
 
@@ -38,6 +41,36 @@ export function interpretResponse(f: Findings, renderer: NoteRenderer, format: '
   };
 }
 
+const noteFormat = (c: Context): 'text' | 'markdown' => (c.req.query('format') === 'markdown' ? 'markdown' : 'text');
+
+/** What the FHIR reader found, beside the reading: nothing it did not use is dropped silently. */
+const fhirReport = (r: FhirResult) => ({ read: r.read, unused: r.unused, superseded: r.superseded, conversions: r.conversions, notes: r.notes });
+
+/**
+ * FHIR R4 Observations (a Bundle, a list, or one) coded with LOINC and UCUM. A sample type the codes do not
+ * state can be given as ?sample=arterial|venous|capillary; any other question is answered with 422.
+ */
+async function interpretFhir(c: Context, deps: ApiDeps) {
+  let json: unknown;
+  try {
+    json = await c.req.json();
+  } catch {
+    return jsonError(c, 400, 'The body is not valid JSON');
+  }
+  const fhir = caseFromFhir(json);
+  const sample = c.req.query('sample');
+  if (sample !== undefined && !SAMPLES.has(sample)) return jsonError(c, 422, 'sample must be one of: arterial, venous, capillary', 'sample');
+  const questions = fhir.questions.filter((q) => !(q.path === 'sample' && sample));
+  if (fhir.errors.length || questions.length) {
+    const errors = [...fhir.errors, ...questions.map((q) => ({ path: q.path, message: q.options?.length ? `${q.reason} (one of: ${q.options.join(', ')})` : q.reason }))];
+    return c.json({ ok: false, errors, fhir: fhirReport(fhir) }, 422);
+  }
+  const kase = sample ? { ...fhir.case, sample } : fhir.case;
+  const result = interpret(kase, deps.interpretOptions);
+  if (!result.ok) return c.json({ ok: false, errors: result.errors, fhir: fhirReport(fhir) }, 422);
+  return c.json({ ...interpretResponse(result, deps.renderer, noteFormat(c)), fhir: fhirReport(fhir) });
+}
+
 export function apiRoutes(deps: ApiDeps): Hono {
   const api = new Hono();
 
@@ -47,7 +80,9 @@ export function apiRoutes(deps: ApiDeps): Hono {
     '/api/interpret',
     bodyLimit({ maxSize: BODY_LIMIT_BYTES, onError: (c) => jsonError(c, 413, `The body is larger than ${BODY_LIMIT_BYTES / 1024} KiB`) }),
     async (c, next) => {
-      if (!JSON_TYPES.has(mediaType(c))) return jsonError(c, 415, 'Send the case as Content-Type: application/json');
+      const type = mediaType(c);
+      if (type === FHIR_TYPE) return interpretFhir(c, deps);
+      if (type !== JSON_TYPE) return jsonError(c, 415, `Send the case as Content-Type: ${JSON_TYPE}, or FHIR R4 Observations as ${FHIR_TYPE}`);
       await next();
     },
     zValidator('json', caseSchema, (result, c) => {
@@ -55,10 +90,9 @@ export function apiRoutes(deps: ApiDeps): Hono {
     }),
     (c) => {
       // the schema already passed in the validator; interpret() also rejects an implausible worked-out value
-      const format = c.req.query('format') === 'markdown' ? 'markdown' : 'text';
       const result = interpret(c.req.valid('json'), deps.interpretOptions);
       if (!result.ok) return c.json({ ok: false, errors: result.errors }, 422);
-      return c.json(interpretResponse(result, deps.renderer, format));
+      return c.json(interpretResponse(result, deps.renderer, noteFormat(c)));
     },
   );
 
