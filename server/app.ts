@@ -1,7 +1,7 @@
 // The application: routes wired to calc/, templates/ and views/, with headers, limits and errors.
 import { Hono } from 'hono';
 import { HTTPException } from 'hono/http-exception';
-import { secureHeaders } from 'hono/secure-headers';
+import { originCheck, securityHeaders } from './security.ts';
 import { apiRoutes } from './api.ts';
 import { pageRoutes } from './page.ts';
 import { jsonError } from './errors.ts';
@@ -13,6 +13,8 @@ export interface AppOptions {
   templateDir?: string | null;
   renderer?: NoteRenderer;
   interpretOptions?: InterpretOptions;
+  /** public origins allowed to post forms besides the request's own (ALLOWED_ORIGINS, behind a TLS proxy) */
+  allowedOrigins?: string[];
   /** request log sink: method, path, status and time only, never a value from a case */
   log?: (line: string) => void;
 }
@@ -30,14 +32,8 @@ export function createApp(options: AppOptions = {}): Hono {
     });
   }
 
-  // strict CSP for the page: own files only, no inline script or style, no framing
-  app.use(secureHeaders({
-    contentSecurityPolicy: {
-      defaultSrc: ["'self'"], scriptSrc: ["'self'"], styleSrc: ["'self'"], imgSrc: ["'self'"], connectSrc: ["'self'"],
-      formAction: ["'self'"], frameAncestors: ["'none'"], baseUri: ["'none'"], objectSrc: ["'none'"],
-    },
-    xFrameOptions: 'DENY',
-  }));
+  app.use(securityHeaders());
+  app.use(originCheck(options.allowedOrigins ?? []));
 
   app.route('/', apiRoutes({ renderer, interpretOptions: options.interpretOptions }));
   app.route('/', pageRoutes({ renderer, interpretOptions: options.interpretOptions }));
@@ -48,6 +44,7 @@ export function createApp(options: AppOptions = {}): Hono {
       const status = err.status;
       if (status === 400) return jsonError(c, 400, 'The body is not valid JSON');
       if (status === 413) return jsonError(c, 413, 'The body is too large');
+      if (status === 403) return jsonError(c, 403, 'Refused: this form was not posted from this page (cross-origin request)');
       return jsonError(c, status as 400, err.message || 'Bad request');
     }
     // a fault of ours, not of the request: say so without echoing anything from it

@@ -16,6 +16,7 @@ export function startServer(env: NodeJS.ProcessEnv = process.env) {
   }
   const app = createApp({
     templateDir: env.NOTE_TEMPLATES?.trim() || null,
+    allowedOrigins: (env.ALLOWED_ORIGINS ?? '').split(',').map((o) => o.trim()).filter(Boolean),
     log: env.REQUEST_LOG === 'off' ? undefined : (line) => console.log(line),
   });
   const server = serve({ fetch: app.fetch, port, hostname }, (info) => {
