@@ -95,11 +95,12 @@ const plausibleHco3 = (h: number): number => Math.min(70, Math.max(1, h));
  * when the current HCO3 is below the reference range: that HCO3 has itself moved (a metabolic change).
  */
 export function referencePoint(baseline: Baseline | null | undefined, pregnant: boolean, currentHco3: number, currentPco2?: number): ReferencePoint {
-  const textbook = pregnant
-    ? { pco2: PREGNANCY.pco2.mid, hco3: PREGNANCY.hco3.mid, pco2Band: { low: PREGNANCY.pco2.low, high: PREGNANCY.pco2.high }, hco3Band: { low: PREGNANCY.hco3.low, high: PREGNANCY.hco3.high } }
-    : { pco2: NORMAL.pco2.mid, hco3: NORMAL.hco3.mid, pco2Band: { low: NORMAL.pco2.low, high: NORMAL.pco2.high }, hco3Band: { low: NORMAL.hco3.low, high: NORMAL.hco3.high } };
-  const textbookPoint = (usualPhIgnored: boolean): ReferencePoint =>
-    ({ ...textbook, kind: pregnant ? 'pregnancy' : 'textbook', estimated: { pco2: false, hco3: false }, usualPhIgnored });
+  const ref = pregnant ? PREGNANCY : NORMAL;
+  const textbook = { pco2Band: { low: ref.pco2.low, high: ref.pco2.high }, hco3Band: { low: ref.hco3.low, high: ref.hco3.high } };
+  const textbookPoint = (usualPhIgnored: boolean): ReferencePoint => ({
+    pco2: ref.pco2.mid, hco3: ref.hco3.mid, pco2Band: textbook.pco2Band, hco3Band: textbook.hco3Band,
+    kind: pregnant ? 'pregnancy' : 'textbook', estimated: { pco2: false, hco3: false }, usualPhIgnored,
+  });
   const b = baseline ?? {};
   const has = (v: number | null | undefined): v is number => v !== null && v !== undefined;
   if (!has(b.pco2) && !has(b.hco3) && !has(b.ph)) return textbookPoint(false);

@@ -1,5 +1,5 @@
 // The calculation core's public surface.
-export { interpret } from './interpret.ts';
+export { interpret, interpretParsed } from './interpret.ts';
 export type { Findings, Rejected, Derived, Metabolic, Oxygenation, Ventilation, Venous, Change, PreviousGas, Serial, InterpretOptions } from './interpret.ts';
 export { caseSchema, caseShape, parseCase, rangeErrors, toFieldErrors, resolveUnits, rangeText } from './schema.ts';
 export type { CaseInput, ParsedCase, FieldError, Range } from './schema.ts';

@@ -1,5 +1,5 @@
 // interpret(case): validate, convert once, compute every finding, and say how each number was reached.
-import { parseCase, type FieldError, type CaseInput, GAS_RANGES, VENTILATOR_RANGES, rangeText } from './schema.ts';
+import { parseCase, type FieldError, type CaseInput, type ParsedCase, GAS_RANGES, VENTILATOR_RANGES, rangeText } from './schema.ts';
 import { canonicalize, type CanonicalCase, type Gas } from './canonical.ts';
 import { mergeSettings, NORMAL, SERIAL, UNIT_SCREEN, OXYGENATION, PHYSIOLOGY, VENOUS, VENTILATION, type Settings } from './reference.ts';
 import { hendersonBicarbonate, hendersonConsistency, hendersonHasselbalchPh, hydrogenIon, type Consistency } from './acidBase.ts';
@@ -128,13 +128,21 @@ export interface InterpretOptions {
 
 const has = (x: N | undefined): x is number => x !== null && x !== undefined;
 
+/** Explanations are built only when read: each is a thunk over the values of one reading. */
+type Explainers = Record<string, () => Explanation>;
+
 /** The whole reading of one case. Pure: the same case always gives the same findings. */
 export function interpret(raw: CaseInput | unknown, options: InterpretOptions = {}): Findings | Rejected {
   const parsed = parseCase(raw);
   if (!parsed.ok) return { ok: false, errors: parsed.errors };
-  const c = canonicalize(parsed.value);
+  return interpretParsed(parsed.value, options);
+}
+
+/** The reading of a case that has already passed caseSchema (the server's validator, say). */
+export function interpretParsed(value: ParsedCase, options: InterpretOptions = {}): Findings | Rejected {
+  const c = canonicalize(value);
   if (options.settings) {
-    const rawSettings = parsed.value.settings ?? {};
+    const rawSettings = value.settings ?? {};
     const department = mergeSettings({ ...options.settings, critical: { ...options.settings.critical } });
     c.settings = mergeSettings({
       anionGapNormal: rawSettings.anionGapNormal ?? department.anionGapNormal,
@@ -201,25 +209,21 @@ function readCase(c: CanonicalCase): Findings {
   const derived = emptyDerived(hPlus, g);
   const sbe = standardBaseExcess(g.ph, g.hco3);
   const flags: Flag[] = [];
-  const explain: Record<string, Explanation> = {};
+  const explain: Explainers = {};
   const P = 'mmHg', M = 'mmol/L';
   const gasInputs = () => [input('pH', g.ph, ''), input('PaCO2', g.pco2, P), input('HCO3', g.hco3, M)];
 
-  explain.hPlus = explanation('hPlus', '[H+]', round(hPlus, 1), 'nmol/L', '[H+] = 10^(9 - pH)', [input('pH', g.ph, '')], 'hydrogenIon');
-  explain.hco3Henderson = explanation('hco3Henderson', 'HCO3 from the Henderson equation', round(hendersonBicarbonate(hPlus, g.pco2), 1), M, 'HCO3 = 24 x PaCO2 / [H+]', [input('PaCO2', g.pco2, P), input('[H+]', round(hPlus, 1), 'nmol/L')], 'henderson');
-  explain.phHendersonHasselbalch = explanation('phHendersonHasselbalch', 'pH from Henderson-Hasselbalch', round(hendersonHasselbalchPh(g.pco2, g.hco3), 2), '', 'pH = 6.1 + log10(HCO3 / (0.0307 x PaCO2))', [input('HCO3', g.hco3, M), input('PaCO2', g.pco2, P)], 'hendersonHasselbalch');
-  explain.standardBaseExcess = explanation('standardBaseExcess', 'Standard base excess', round(sbe, 1), M, 'SBE = 0.93 x (HCO3 - 24.4 + 14.8 x (pH - 7.40))', [input('HCO3', g.hco3, M), input('pH', g.ph, '')], 'clsiC46');
+  explain.hPlus = () => explanation('hPlus', '[H+]', round(hPlus, 1), 'nmol/L', '[H+] = 10^(9 - pH)', [input('pH', g.ph, '')], 'hydrogenIon');
+  explain.hco3Henderson = () => explanation('hco3Henderson', 'HCO3 from the Henderson equation', round(hendersonBicarbonate(hPlus, g.pco2), 1), M, 'HCO3 = 24 x PaCO2 / [H+]', [input('PaCO2', g.pco2, P), input('[H+]', round(hPlus, 1), 'nmol/L')], 'henderson');
+  explain.phHendersonHasselbalch = () => explanation('phHendersonHasselbalch', 'pH from Henderson-Hasselbalch', round(hendersonHasselbalchPh(g.pco2, g.hco3), 2), '', 'pH = 6.1 + log10(HCO3 / (0.0307 x PaCO2))', [input('HCO3', g.hco3, M), input('PaCO2', g.pco2, P)], 'hendersonHasselbalch');
+  explain.standardBaseExcess = () => explanation('standardBaseExcess', 'Standard base excess', round(sbe, 1), M, 'SBE = 0.93 x (HCO3 - 24.4 + 14.8 x (pH - 7.40))', [input('HCO3', g.hco3, M), input('pH', g.ph, '')], 'clsiC46');
 
   if (g.computed) flags.push(flag('gas_value_computed', 'info', { field: g.computed, value: round(g[g.computed], g.computed === 'ph' ? 2 : 1) }));
 
   // a pressure in doubt (unit_ambiguous, below) puts the usual PaCO2 in doubt too: the textbook reference then
   const withheld = unitLooksMixed(c);
   const reference = withheld ? referencePoint(null, c.patient.pregnant, g.hco3) : referencePoint(c.context.baseline, c.patient.pregnant, g.hco3, g.pco2);
-  const base: Omit<Findings, 'phStatus' | 'consistency' | 'compensation' | 'disorders' | 'metabolic' | 'oxygenation' | 'ventilation' | 'venous' | 'withheld'> = {
-    ok: true, units: c.units, case: c, reference, derived, flags, explain,
-    previous: inTimeOrder(c.previous).map((p) => ({ ...p, hPlus: hydrogenIon(p.gas.ph) })),
-    changes: [], serial: null,
-  };
+  const previous = inTimeOrder(c.previous).map((p) => ({ ...p, hPlus: hydrogenIon(p.gas.ph) }));
 
   // A likely unit slip: ask, compute nothing from the pressure (clinical-scope section 3).
   if (withheld) {
@@ -230,9 +234,10 @@ function readCase(c: CanonicalCase): Findings {
     if (c.sample !== 'arterial') flags.push(flag('oxygenation_not_assessable', 'info', { sample: c.sample }));
     criticalFlags(c, flags, true);
     return finish({
-      ...base, withheld: true, phStatus: classifyPhOnly(g.ph), consistency: null, compensation: null, disorders: [],
-      metabolic: emptyMetabolic(s), oxygenation: notAssessed(c), ventilation: null, venous: null,
-    }, true);
+      withheld: true, case: c, phStatus: classifyPhOnly(g.ph), consistency: null, reference, compensation: null, disorders: [],
+      derived, metabolic: emptyMetabolic(s), oxygenation: notAssessed(c), ventilation: null, venous: null,
+      previous, changes: [], serial: null, flags,
+    }, explain);
   }
 
   // Henderson check of the report (clinical-scope section 2)
@@ -271,24 +276,52 @@ function readCase(c: CanonicalCase): Findings {
   const ventilation = ventilationPart(c, derived, explain, flags, classification, reference);
   criticalFlags(c, flags, false);
 
+  const serial = serialPart(c, previous.at(-1) ?? null, derived, explain);
   return finish({
-    ...base, withheld: false, phStatus: classification.phStatus, consistency, compensation: classification.compensation,
-    disorders: classification.disorders, metabolic, oxygenation, ventilation, venous,
-    changes: changesSince(c),
-    serial: serialPart(c, base.previous.at(-1) ?? null, derived, explain),
-  }, false);
+    withheld: false, case: c, phStatus: classification.phStatus, consistency, reference, compensation: classification.compensation,
+    disorders: classification.disorders, derived, metabolic, oxygenation, ventilation, venous,
+    previous, changes: changesSince(c), serial, flags,
+  }, explain);
 }
 
-function finish(f: Findings, withheld: boolean): Findings {
-  f.flags.sort(bySeverity);
-  roundDerived(f.derived);
-  if (withheld) {
+type Parts = Omit<Findings, 'ok' | 'units' | 'explain'>;
+
+/** The findings as one object; the explanations are built the first time they are read. */
+function finish(parts: Parts, thunks: Explainers): Findings {
+  parts.flags.sort(bySeverity);
+  roundDerived(parts.derived);
+  if (parts.withheld) {
     // nothing is computed from a pressure that may be in the wrong unit
-    const rec = f.derived as unknown as Record<string, unknown>;
+    const rec = parts.derived as unknown as Record<string, unknown>;
     for (const key of Object.keys(rec)) if (key !== 'hPlus') rec[key] = null;
-    for (const key of Object.keys(f.explain)) if (key !== 'hPlus') delete f.explain[key];
+    for (const key of Object.keys(thunks)) if (key !== 'hPlus') delete thunks[key];
   }
-  return f;
+  return new Reading(parts, thunks);
+}
+
+/** One reading. `explain` is worked out on first use and kept (it is enumerable, so JSON carries it). */
+class Reading implements Findings {
+  readonly ok = true;
+  withheld: boolean; units: Units; case: CanonicalCase; phStatus: PhStatus; consistency: Consistency | null;
+  reference: ReferencePoint; compensation: Compensation | null; disorders: Disorder[]; derived: Derived; metabolic: Metabolic;
+  oxygenation: Oxygenation; ventilation: Ventilation | null; venous: Venous | null; previous: PreviousGas[]; changes: Change[];
+  serial: Serial | null; flags: Flag[];
+  #thunks: Explainers;
+  #built: Record<string, Explanation> | null = null;
+  constructor(p: Parts, thunks: Explainers) {
+    this.withheld = p.withheld; this.units = p.case.units; this.case = p.case; this.phStatus = p.phStatus;
+    this.consistency = p.consistency; this.reference = p.reference; this.compensation = p.compensation;
+    this.disorders = p.disorders; this.derived = p.derived; this.metabolic = p.metabolic; this.oxygenation = p.oxygenation;
+    this.ventilation = p.ventilation; this.venous = p.venous; this.previous = p.previous; this.changes = p.changes;
+    this.serial = p.serial; this.flags = p.flags;
+    this.#thunks = thunks;
+  }
+  get explain(): Record<string, Explanation> {
+    return (this.#built ??= Object.fromEntries(Object.entries(this.#thunks).map(([key, thunk]) => [key, thunk()])));
+  }
+  toJSON() {
+    return { ...this, explain: this.explain };
+  }
 }
 
 const classifyPhOnly = (ph: number): PhStatus => (ph < NORMAL.ph.low ? 'acidaemia' : ph > NORMAL.ph.high ? 'alkalaemia' : 'normal');
@@ -308,7 +341,7 @@ function notAssessed(c: CanonicalCase): Oxygenation {
   };
 }
 
-function anionGapPart(c: CanonicalCase, d: Derived, m: Metabolic, explain: Record<string, Explanation>) {
+function anionGapPart(c: CanonicalCase, d: Derived, m: Metabolic, explain: Explainers) {
   const ch = c.chemistry, g = c.gas, s = c.settings;
   if (!has(ch.na) || !has(ch.cl)) return null;
   const withK = s.anionGapIncludesK && has(ch.k);
@@ -317,7 +350,7 @@ function anionGapPart(c: CanonicalCase, d: Derived, m: Metabolic, explain: Recor
   d.anionGap = gap;
   const inputs = [input('Na', ch.na, 'mmol/L'), input('Cl', ch.cl, 'mmol/L'), input('HCO3', g.hco3, 'mmol/L')];
   if (withK && has(ch.k)) inputs.splice(1, 0, input('K', ch.k, 'mmol/L'));
-  explain.anionGap = explanation('anionGap', 'Anion gap', round(gap, 1), 'mmol/L', withK ? 'AG = Na + K - (Cl + HCO3)' : 'AG = Na - (Cl + HCO3)', inputs, 'kraut2007');
+  explain.anionGap = () => explanation('anionGap', 'Anion gap', round(gap, 1), 'mmol/L', withK ? 'AG = Na + K - (Cl + HCO3)' : 'AG = Na - (Cl + HCO3)', inputs, 'kraut2007');
   let used = gap;
   m.anionGapUsed = 'uncorrected';
   if (has(ch.albumin)) {
@@ -325,7 +358,7 @@ function anionGapPart(c: CanonicalCase, d: Derived, m: Metabolic, explain: Recor
     d.anionGapCorrected = corrected;
     used = corrected;
     m.anionGapUsed = 'corrected';
-    explain.anionGapCorrected = explanation('anionGapCorrected', 'Albumin-corrected anion gap', round(corrected, 1), 'mmol/L', 'AGc = AG + 2.5 x (4.0 - albumin g/dL)', [input('AG', round(gap, 1), 'mmol/L'), input('Albumin', ch.albumin, 'g/dL')], 'figge1998');
+    explain.anionGapCorrected = () => explanation('anionGapCorrected', 'Albumin-corrected anion gap', round(corrected, 1), 'mmol/L', 'AGc = AG + 2.5 x (4.0 - albumin g/dL)', [input('AG', round(gap, 1), 'mmol/L'), input('Albumin', ch.albumin!, 'g/dL')], 'figge1998');
   }
   const upper = s.anionGapNormal + s.anionGapHalfWidth;
   m.anionGapUpperLimit = upper;
@@ -334,12 +367,12 @@ function anionGapPart(c: CanonicalCase, d: Derived, m: Metabolic, explain: Recor
   d.deltaRatio = ratio;
   if (ratio !== null) {
     m.deltaBand = deltaRatioBand(ratio);
-    explain.deltaRatio = explanation('deltaRatio', 'Delta ratio', round(ratio, 2), '', `delta ratio = (${m.anionGapUsed === 'corrected' ? 'AGc' : 'AG'} - ${s.anionGapNormal}) / (24 - HCO3)`, [input(m.anionGapUsed === 'corrected' ? 'AGc' : 'AG', round(used, 1), 'mmol/L'), input('HCO3', g.hco3, 'mmol/L')], 'wrenn1990');
+    explain.deltaRatio = () => explanation('deltaRatio', 'Delta ratio', round(ratio, 2), '', `delta ratio = (${m.anionGapUsed === 'corrected' ? 'AGc' : 'AG'} - ${s.anionGapNormal}) / (24 - HCO3)`, [input(m.anionGapUsed === 'corrected' ? 'AGc' : 'AG', round(used, 1), 'mmol/L'), input('HCO3', g.hco3, 'mmol/L')], 'wrenn1990');
   }
   return { value: used, upperLimit: upper, normal: s.anionGapNormal, deltaRatio: ratio };
 }
 
-function otherMetabolic(c: CanonicalCase, sbe: number, d: Derived, m: Metabolic, explain: Record<string, Explanation>, flags: Flag[]) {
+function otherMetabolic(c: CanonicalCase, sbe: number, d: Derived, m: Metabolic, explain: Explainers, flags: Flag[]) {
   const ch = c.chemistry, g = c.gas, u = c.urine;
   if (has(g.lactate)) {
     m.lactateBand = lactateBand(g.lactate);
@@ -350,65 +383,65 @@ function otherMetabolic(c: CanonicalCase, sbe: number, d: Derived, m: Metabolic,
     d.calculatedOsmolality = calc;
     const inputs = [input('Na', ch.na, 'mmol/L'), input('Glucose', round(ch.glucose, 1), 'mmol/L'), input('Urea', round(ch.urea, 1), 'mmol/L')];
     if (has(ch.ethanol)) inputs.push(input('Ethanol', round(ch.ethanol, 1), 'mmol/L'));
-    explain.calculatedOsmolality = explanation('calculatedOsmolality', 'Calculated osmolality', round(calc, 1), 'mOsm/kg',
+    explain.calculatedOsmolality = () => explanation('calculatedOsmolality', 'Calculated osmolality', round(calc, 1), 'mOsm/kg',
       has(ch.ethanol) ? '2 Na + glucose + urea + ethanol mg/dL / 3.7 (mmol/L)' : '2 Na + glucose + urea (mmol/L)', inputs, 'purssell2001');
     if (has(ch.osmolality)) {
       const gap = osmolarGap(ch.osmolality, calc);
       d.osmolarGap = gap;
       m.osmolarGapRaised = osmolarGapRaised(gap);
-      explain.osmolarGap = explanation('osmolarGap', 'Osmolar gap', round(gap, 1), 'mOsm/kg', 'measured - calculated osmolality', [input('Measured', ch.osmolality, 'mOsm/kg'), input('Calculated', round(calc, 1), 'mOsm/kg')], 'purssell2001');
+      explain.osmolarGap = () => explanation('osmolarGap', 'Osmolar gap', round(gap, 1), 'mOsm/kg', 'measured - calculated osmolality', [input('Measured', ch.osmolality!, 'mOsm/kg'), input('Calculated', round(calc, 1), 'mOsm/kg')], 'purssell2001');
       if (m.osmolarGapRaised) flags.push(flag('osmolar_gap_raised', 'warning', { osmolarGap: round(gap, 1) }));
     }
   }
   if (has(ch.na) && has(ch.cl) && has(ch.albumin)) {
     const p = physicochemicalPartition(sbe, ch.na, ch.cl, ch.albumin);
     d.sodiumChlorideEffect = p.sodiumChloride; d.albuminEffect = p.albumin; d.unmeasuredIonEffect = p.unmeasured;
-    explain.sodiumChlorideEffect = explanation('sodiumChlorideEffect', 'Na-Cl effect', round(p.sodiumChloride, 1), 'mmol/L', 'Na - Cl - 38', [input('Na', ch.na, 'mmol/L'), input('Cl', ch.cl, 'mmol/L')], 'story2004');
-    explain.albuminEffect = explanation('albuminEffect', 'Albumin effect', round(p.albumin, 1), 'mmol/L', '0.25 x (42 - albumin g/L)', [input('Albumin', round(ch.albumin * 10, 0), 'g/L')], 'story2004');
-    explain.unmeasuredIonEffect = explanation('unmeasuredIonEffect', 'Unmeasured-ion effect', round(p.unmeasured, 1), 'mmol/L', 'SBE - (Na-Cl effect) - (albumin effect)', [input('SBE', round(sbe, 1), 'mmol/L'), input('Na-Cl effect', round(p.sodiumChloride, 1), 'mmol/L'), input('Albumin effect', round(p.albumin, 1), 'mmol/L')], 'story2004');
+    explain.sodiumChlorideEffect = () => explanation('sodiumChlorideEffect', 'Na-Cl effect', round(p.sodiumChloride, 1), 'mmol/L', 'Na - Cl - 38', [input('Na', ch.na!, 'mmol/L'), input('Cl', ch.cl!, 'mmol/L')], 'story2004');
+    explain.albuminEffect = () => explanation('albuminEffect', 'Albumin effect', round(p.albumin, 1), 'mmol/L', '0.25 x (42 - albumin g/L)', [input('Albumin', round(ch.albumin! * 10, 0), 'g/L')], 'story2004');
+    explain.unmeasuredIonEffect = () => explanation('unmeasuredIonEffect', 'Unmeasured-ion effect', round(p.unmeasured, 1), 'mmol/L', 'SBE - (Na-Cl effect) - (albumin effect)', [input('SBE', round(sbe, 1), 'mmol/L'), input('Na-Cl effect', round(p.sodiumChloride, 1), 'mmol/L'), input('Albumin effect', round(p.albumin, 1), 'mmol/L')], 'story2004');
   }
   if (has(ch.na) && has(ch.k) && has(ch.ionisedCalcium) && has(ch.magnesium) && has(ch.cl) && has(g.lactate) && has(ch.albumin) && has(ch.phosphate)) {
     const sida = apparentStrongIonDifference({ na: ch.na, k: ch.k, ionisedCalcium: ch.ionisedCalcium, magnesium: ch.magnesium, cl: ch.cl, lactate: g.lactate });
     const side = effectiveStrongIonDifference(g.hco3, ch.albumin, ch.phosphate, g.ph);
     d.apparentSid = sida; d.effectiveSid = side; d.strongIonGap = strongIonGap(sida, side);
-    explain.apparentSid = explanation('apparentSid', 'Apparent SID', round(sida, 1), 'mmol/L', 'Na + K + 2 iCa + 2 Mg - Cl - lactate', [input('Na', ch.na, 'mmol/L'), input('K', ch.k, 'mmol/L'), input('iCa', ch.ionisedCalcium, 'mmol/L'), input('Mg', ch.magnesium, 'mmol/L'), input('Cl', ch.cl, 'mmol/L'), input('Lactate', g.lactate, 'mmol/L')], 'kellum2005');
-    explain.effectiveSid = explanation('effectiveSid', 'Effective SID', round(side, 1), 'mmol/L', 'HCO3 + albumin g/L x (0.123 pH - 0.631) + phosphate x (0.309 pH - 0.469)', [input('HCO3', g.hco3, 'mmol/L'), input('Albumin', round(ch.albumin * 10, 0), 'g/L'), input('Phosphate', ch.phosphate, 'mmol/L'), input('pH', g.ph, '')], 'kellum2005');
-    explain.strongIonGap = explanation('strongIonGap', 'Strong ion gap', round(d.strongIonGap, 1), 'mmol/L', 'SIG = SIDa - SIDe', [input('SIDa', round(sida, 1), 'mmol/L'), input('SIDe', round(side, 1), 'mmol/L')], 'kellum2005');
+    explain.apparentSid = () => explanation('apparentSid', 'Apparent SID', round(sida, 1), 'mmol/L', 'Na + K + 2 iCa + 2 Mg - Cl - lactate', [input('Na', ch.na!, 'mmol/L'), input('K', ch.k!, 'mmol/L'), input('iCa', ch.ionisedCalcium!, 'mmol/L'), input('Mg', ch.magnesium!, 'mmol/L'), input('Cl', ch.cl!, 'mmol/L'), input('Lactate', g.lactate!, 'mmol/L')], 'kellum2005');
+    explain.effectiveSid = () => explanation('effectiveSid', 'Effective SID', round(side, 1), 'mmol/L', 'HCO3 + albumin g/L x (0.123 pH - 0.631) + phosphate x (0.309 pH - 0.469)', [input('HCO3', g.hco3, 'mmol/L'), input('Albumin', round(ch.albumin! * 10, 0), 'g/L'), input('Phosphate', ch.phosphate!, 'mmol/L'), input('pH', g.ph, '')], 'kellum2005');
+    explain.strongIonGap = () => explanation('strongIonGap', 'Strong ion gap', round(d.strongIonGap!, 1), 'mmol/L', 'SIG = SIDa - SIDe', [input('SIDa', round(sida, 1), 'mmol/L'), input('SIDe', round(side, 1), 'mmol/L')], 'kellum2005');
   }
   if (has(u.na) && has(u.k) && has(u.cl)) {
     const uag = urineAnionGap(u.na, u.k, u.cl);
     d.urineAnionGap = uag;
     m.urineAnionGapNegative = uag < 0;
-    explain.urineAnionGap = explanation('urineAnionGap', 'Urine anion gap', round(uag, 0), 'mmol/L', 'uNa + uK - uCl', [input('Urine Na', u.na, 'mmol/L'), input('Urine K', u.k, 'mmol/L'), input('Urine Cl', u.cl, 'mmol/L')], 'commonPractice');
+    explain.urineAnionGap = () => explanation('urineAnionGap', 'Urine anion gap', round(uag, 0), 'mmol/L', 'uNa + uK - uCl', [input('Urine Na', u.na!, 'mmol/L'), input('Urine K', u.k!, 'mmol/L'), input('Urine Cl', u.cl!, 'mmol/L')], 'commonPractice');
   }
   if (has(u.cl)) m.urineChlorideResponsive = chlorideResponsive(u.cl);
 }
 
-function explainCompensation(comp: Compensation | null, ref: ReferencePoint, explain: Record<string, Explanation>, gasInputs: () => ReturnType<typeof input>[]) {
+function explainCompensation(comp: Compensation | null, ref: ReferencePoint, explain: Explainers, gasInputs: () => ReturnType<typeof input>[]) {
   if (!comp) return;
   const mid = (b: Band) => round((b.low + b.high) / 2, 1);
   const refInputs = [input('Reference PaCO2', round(ref.pco2, 1), 'mmHg'), input('Reference HCO3', round(ref.hco3, 1), 'mmol/L')];
   switch (comp.rule) {
     case 'winters':
-      explain.expectedPco2 = explanation('expectedPco2', 'Expected PaCO2 (Winters)', mid(comp.expected), 'mmHg', 'PaCO2 = 1.5 x HCO3 + 8 (+/- 2)', gasInputs().slice(2), 'winters');
+      explain.expectedPco2 = () => explanation('expectedPco2', 'Expected PaCO2 (Winters)', mid(comp.expected), 'mmHg', 'PaCO2 = 1.5 x HCO3 + 8 (+/- 2)', gasInputs().slice(2), 'winters');
       break;
     case 'metabolic_alkalosis':
-      explain.expectedPco2 = explanation('expectedPco2', 'Expected PaCO2 (metabolic alkalosis)', mid(comp.expected), 'mmHg', 'PaCO2 = 0.7 x HCO3 + 21 (+/- 2)', gasInputs().slice(2), 'berend2014');
+      explain.expectedPco2 = () => explanation('expectedPco2', 'Expected PaCO2 (metabolic alkalosis)', mid(comp.expected), 'mmHg', 'PaCO2 = 0.7 x HCO3 + 21 (+/- 2)', gasInputs().slice(2), 'berend2014');
       break;
     case 'respiratory_acidosis':
-      explain.expectedHco3 = explanation('expectedHco3', 'Expected HCO3 (respiratory acidosis)', mid(comp.expected), 'mmol/L',
+      explain.expectedHco3 = () => explanation('expectedHco3', 'Expected HCO3 (respiratory acidosis)', mid(comp.expected), 'mmol/L',
         comp.timing === 'acute' ? 'HCO3 = ref HCO3 + 1 x (PaCO2 - ref PaCO2) / 10 (+/- 2)' : comp.timing === 'chronic' ? 'HCO3 = ref HCO3 + 3.5 x (PaCO2 - ref PaCO2) / 10 (+/- 2)' : 'from acute (1 per 10 mmHg) to chronic (3.5 per 10 mmHg), +/- 2',
         [gasInputs()[1]!, ...refInputs], 'berend2014');
       break;
     case 'respiratory_alkalosis':
-      explain.expectedHco3 = explanation('expectedHco3', 'Expected HCO3 (respiratory alkalosis)', mid(comp.expected), 'mmol/L',
+      explain.expectedHco3 = () => explanation('expectedHco3', 'Expected HCO3 (respiratory alkalosis)', mid(comp.expected), 'mmol/L',
         comp.timing === 'acute' ? 'HCO3 = ref HCO3 - 2 x (ref PaCO2 - PaCO2) / 10 (+/- 2)' : comp.timing === 'chronic' ? 'HCO3 = ref HCO3 - 4 to 5 x (ref PaCO2 - PaCO2) / 10 (+/- 2)' : 'from acute (2 per 10 mmHg) to chronic (4-5 per 10 mmHg), +/- 2',
         [gasInputs()[1]!, ...refInputs], 'berend2014');
       break;
   }
 }
 
-function oxygenationPart(c: CanonicalCase, d: Derived, explain: Record<string, Explanation>, flags: Flag[]): Oxygenation {
+function oxygenationPart(c: CanonicalCase, d: Derived, explain: Explainers, flags: Flag[]): Oxygenation {
   const o = notAssessed(c);
   const g = c.gas, ox = c.oxygen;
   // SpO2/FiO2 needs no arterial PO2: it is the 2024 global definition's measure when no arterial gas is at hand
@@ -416,7 +449,7 @@ function oxygenationPart(c: CanonicalCase, d: Derived, explain: Record<string, E
     const sf = sfRatio(ox.spo2, ox.fio2);
     d.sfRatio = sf;
     o.sfMeetsCriterion = sfMeetsCriterion(ox.spo2, sf);
-    explain.sfRatio = explanation('sfRatio', 'SpO2/FiO2', round(sf, 0), '', 'S/F = SpO2 % / FiO2', [input('SpO2', ox.spo2, '%'), input('FiO2', ox.fio2, '')], 'ardsGlobal2024');
+    explain.sfRatio = () => explanation('sfRatio', 'SpO2/FiO2', round(sf, 0), '', 'S/F = SpO2 % / FiO2', [input('SpO2', ox.spo2!, '%'), input('FiO2', ox.fio2!, '')], 'ardsGlobal2024');
   }
   if (c.sample !== 'arterial') {
     flags.push(flag('oxygenation_not_assessable', 'info', { sample: c.sample }));
@@ -427,13 +460,13 @@ function oxygenationPart(c: CanonicalCase, d: Derived, explain: Record<string, E
   if (has(c.context.barometricPressure)) { pb = c.context.barometricPressure; o.barometricSource = 'entered'; }
   else if (has(c.context.altitudeM)) {
     pb = barometricPressureAtAltitude(c.context.altitudeM); o.barometricSource = 'altitude';
-    explain.barometricPressure = explanation('barometricPressure', 'Barometric pressure', round(pb, 0), 'mmHg', 'PB = 760 x (1 - 2.25577e-5 x altitude m)^5.25588', [input('Altitude', c.context.altitudeM, 'm')], 'isa');
+    explain.barometricPressure = () => explanation('barometricPressure', 'Barometric pressure', round(pb, 0), 'mmHg', 'PB = 760 x (1 - 2.25577e-5 x altitude m)^5.25588', [input('Altitude', c.context.altitudeM!, 'm')], 'isa');
   }
   d.barometricPressure = pb;
   if (has(g.hb) && has(g.sao2)) {
     d.oxygenContent = oxygenContent(g.hb, g.sao2, g.po2 ?? 0);
     if (has(g.po2)) {
-      explain.oxygenContent = explanation('oxygenContent', 'O2 content', round(d.oxygenContent, 1), 'mL/dL', 'CaO2 = 1.34 x Hb x SaO2 + 0.003 x PaO2', [input('Hb', round(g.hb, 1), 'g/dL'), input('SaO2', g.sao2, '%'), input('PaO2', round(g.po2, 1), 'mmHg')], 'oxygenContent');
+      explain.oxygenContent = () => explanation('oxygenContent', 'O2 content', round(d.oxygenContent!, 1), 'mL/dL', 'CaO2 = 1.34 x Hb x SaO2 + 0.003 x PaO2', [input('Hb', round(g.hb!, 1), 'g/dL'), input('SaO2', g.sao2!, '%'), input('PaO2', round(g.po2!, 1), 'mmHg')], 'oxygenContent');
     } else d.oxygenContent = null;
   }
   if (!has(g.po2)) return o;
@@ -445,16 +478,16 @@ function oxygenationPart(c: CanonicalCase, d: Derived, explain: Record<string, E
   }
   const pao2 = alveolarPo2(ox.fio2, g.pco2, pb);
   d.alveolarPo2 = pao2;
-  explain.alveolarPo2 = explanation('alveolarPo2', 'Alveolar PO2', round(pao2, 1), 'mmHg', 'PAO2 = FiO2 x (PB - 47) - PaCO2 / 0.8', [input('FiO2', ox.fio2, ''), input('PB', round(pb, 0), 'mmHg'), input('PaCO2', round(g.pco2, 1), 'mmHg')], 'alveolarGas');
+  explain.alveolarPo2 = () => explanation('alveolarPo2', 'Alveolar PO2', round(pao2, 1), 'mmHg', 'PAO2 = FiO2 x (PB - 47) - PaCO2 / 0.8', [input('FiO2', ox.fio2!, ''), input('PB', round(pb, 0), 'mmHg'), input('PaCO2', round(g.pco2, 1), 'mmHg')], 'alveolarGas');
   const gradient = aaGradient(pao2, g.po2);
   d.aaGradient = gradient;
-  explain.aaGradient = explanation('aaGradient', 'A-a gradient', round(gradient, 1), 'mmHg', 'A-a = PAO2 - PaO2', [input('PAO2', round(pao2, 1), 'mmHg'), input('PaO2', round(g.po2, 1), 'mmHg')], 'alveolarGas');
+  explain.aaGradient = () => explanation('aaGradient', 'A-a gradient', round(gradient, 1), 'mmHg', 'A-a = PAO2 - PaO2', [input('PAO2', round(pao2, 1), 'mmHg'), input('PaO2', round(g.po2!, 1), 'mmHg')], 'alveolarGas');
   if (g.po2 > pao2) flags.push(flag('po2_above_alveolar', 'warning', { po2: round(g.po2, 1), alveolarPo2: round(pao2, 1), fio2: ox.fio2 }));
   const roomAir = Math.abs(ox.fio2 - OXYGENATION.roomAirFio2) < 0.005;
   if (has(c.patient.ageYears)) {
     const expected = expectedAaGradient(c.patient.ageYears);
     d.aaGradientExpected = expected;
-    explain.aaGradientExpected = explanation('aaGradientExpected', 'Expected A-a gradient (room air)', round(expected, 0), 'mmHg', 'age / 4 + 4', [input('Age', c.patient.ageYears, 'years')], 'aaAge');
+    explain.aaGradientExpected = () => explanation('aaGradientExpected', 'Expected A-a gradient (room air)', round(expected, 0), 'mmHg', 'age / 4 + 4', [input('Age', c.patient.ageYears!, 'years')], 'aaAge');
     if (roomAir) {
       o.aaRaised = gradient > expected;
       o.lowInspiredOrHypoventilation = o.level !== 'normal' && !o.aaRaised;
@@ -462,7 +495,7 @@ function oxygenationPart(c: CanonicalCase, d: Derived, explain: Record<string, E
   }
   const pf = pfRatio(g.po2, ox.fio2);
   d.pfRatio = pf;
-  explain.pfRatio = explanation('pfRatio', 'P/F ratio', round(pf, 0), 'mmHg', 'P/F = PaO2 / FiO2', [input('PaO2', round(g.po2, 1), 'mmHg'), input('FiO2', ox.fio2, '')], 'ardsBerlin');
+  explain.pfRatio = () => explanation('pfRatio', 'P/F ratio', round(pf, 0), 'mmHg', 'P/F = PaO2 / FiO2', [input('PaO2', round(g.po2!, 1), 'mmHg'), input('FiO2', ox.fio2!, '')], 'ardsBerlin');
   o.pfBandApplies = has(ox.peep) && ox.peep >= OXYGENATION.pfMinimumPeep;
   o.pfBand = pfBand(pf);
   return o;
@@ -482,7 +515,7 @@ function venousPart(c: CanonicalCase, flags: Flag[]): Venous | null {
   };
 }
 
-function ventilationPart(c: CanonicalCase, d: Derived, explain: Record<string, Explanation>, flags: Flag[], cl: Classification, ref: ReferencePoint): Ventilation | null {
+function ventilationPart(c: CanonicalCase, d: Derived, explain: Explainers, flags: Flag[], cl: Classification, ref: ReferencePoint): Ventilation | null {
   const v = c.ventilator;
   if (!v) return null;
   const g = c.gas, p = c.patient, peep = c.oxygen.peep;
@@ -496,12 +529,12 @@ function ventilationPart(c: CanonicalCase, d: Derived, explain: Record<string, E
     else {
       pbw = predictedBodyWeight(p.sex, p.heightCm);
       d.predictedBodyWeightKg = pbw;
-      explain.predictedBodyWeightKg = explanation('predictedBodyWeightKg', 'Predicted body weight', round(pbw, 1), 'kg', `${p.sex === 'male' ? '50' : '45.5'} + 0.91 x (height cm - 152.4)`, [input('Height', p.heightCm, 'cm')], 'ardsnet2000');
+      explain.predictedBodyWeightKg = () => explanation('predictedBodyWeightKg', 'Predicted body weight', round(pbw!, 1), 'kg', `${p.sex === 'male' ? '50' : '45.5'} + 0.91 x (height cm - 152.4)`, [input('Height', p.heightCm!, 'cm')], 'ardsnet2000');
     }
   }
   if (has(v.vt) && pbw !== null) {
     d.vtPerKgPbw = vtPerKg(v.vt, pbw);
-    explain.vtPerKgPbw = explanation('vtPerKgPbw', 'VT per kg PBW', round(d.vtPerKgPbw, 1), 'mL/kg', 'VT / PBW', [input('VT', v.vt, 'mL'), input('PBW', round(pbw, 1), 'kg')], 'ardsnet2000');
+    explain.vtPerKgPbw = () => explanation('vtPerKgPbw', 'VT per kg PBW', round(d.vtPerKgPbw!, 1), 'mL/kg', 'VT / PBW', [input('VT', v.vt!, 'mL'), input('PBW', round(pbw, 1), 'kg')], 'ardsnet2000');
     if (d.vtPerKgPbw > VENTILATION.vtHighPerKg) flags.push(flag('vt_above_8_ml_per_kg', 'warning', { which: 'current', vt: v.vt, vtPerKg: round(d.vtPerKgPbw, 1) }));
   }
   if (has(v.rr) && v.rr > VENTILATION.rrMax) flags.push(flag('rr_above_35', 'warning', { which: 'current', rr: v.rr }));
@@ -509,7 +542,7 @@ function ventilationPart(c: CanonicalCase, d: Derived, explain: Record<string, E
     if (v.pplat > VENTILATION.plateauMax) flags.push(flag('plateau_above_30', 'warning', { pplat: v.pplat }));
     if (has(peep)) {
       d.drivingPressure = drivingPressure(v.pplat, peep);
-      explain.drivingPressure = explanation('drivingPressure', 'Driving pressure', round(d.drivingPressure, 0), 'cmH2O', 'Pplat - PEEP', [input('Pplat', v.pplat, 'cmH2O'), input('PEEP', peep, 'cmH2O')], 'amato2015');
+      explain.drivingPressure = () => explanation('drivingPressure', 'Driving pressure', round(d.drivingPressure!, 0), 'cmH2O', 'Pplat - PEEP', [input('Pplat', v.pplat!, 'cmH2O'), input('PEEP', peep, 'cmH2O')], 'amato2015');
       if (d.drivingPressure > VENTILATION.drivingPressureMax) flags.push(flag('driving_pressure_above_15', 'warning', { drivingPressure: round(d.drivingPressure, 0) }));
     }
   }
@@ -517,28 +550,28 @@ function ventilationPart(c: CanonicalCase, d: Derived, explain: Record<string, E
   let vd: N = null;
   if (has(v.deadSpaceFraction) && has(v.vt)) {
     vd = v.deadSpaceFraction * v.vt; out.deadSpaceSource = 'measured_fraction';
-    explain.deadSpaceMl = explanation('deadSpaceMl', 'Dead space', round(vd, 0), 'mL', 'VD = VD/VT x VT', [input('VD/VT', v.deadSpaceFraction, ''), input('VT', v.vt, 'mL')], 'west');
+    explain.deadSpaceMl = () => explanation('deadSpaceMl', 'Dead space', round(vd!, 0), 'mL', 'VD = VD/VT x VT', [input('VD/VT', v.deadSpaceFraction!, ''), input('VT', v.vt!, 'mL')], 'west');
   } else if (pbw !== null) {
     vd = estimatedDeadSpace(pbw, v.deadSpaceMl ?? 0); out.deadSpaceSource = 'estimated';
-    explain.deadSpaceMl = explanation('deadSpaceMl', 'Dead space (estimate)', round(vd, 0), 'mL', '2.2 mL/kg x PBW + apparatus dead space', [input('PBW', round(pbw, 1), 'kg'), input('Apparatus', v.deadSpaceMl ?? 0, 'mL')], 'radford1955');
+    explain.deadSpaceMl = () => explanation('deadSpaceMl', 'Dead space (estimate)', round(vd!, 0), 'mL', '2.2 mL/kg x PBW + apparatus dead space', [input('PBW', round(pbw, 1), 'kg'), input('Apparatus', v.deadSpaceMl ?? 0, 'mL')], 'radford1955');
   }
   d.deadSpaceMl = vd;
   if (has(v.rr) && has(v.vt)) {
     d.minuteVentilation = minuteVentilation(v.rr, v.vt);
-    explain.minuteVentilation = explanation('minuteVentilation', 'Minute ventilation', round(d.minuteVentilation, 1), 'L/min', 'VE = RR x VT', [input('RR', v.rr, '/min'), input('VT', v.vt, 'mL')], 'west');
+    explain.minuteVentilation = () => explanation('minuteVentilation', 'Minute ventilation', round(d.minuteVentilation!, 1), 'L/min', 'VE = RR x VT', [input('RR', v.rr!, '/min'), input('VT', v.vt!, 'mL')], 'west');
     if (vd !== null) {
       if (v.vt - vd <= 0) flags.push(flag('dead_space_exceeds_vt', 'warning', { vt: v.vt, deadSpace: round(vd, 0) }));
       else {
         const va = alveolarVentilation(v.rr, v.vt, vd);
         d.alveolarVentilation = va;
         d.co2Production = co2ProductionEstimate(g.pco2, va);
-        explain.alveolarVentilation = explanation('alveolarVentilation', 'Alveolar ventilation', round(va, 1), 'L/min', 'VA = RR x (VT - VD)', [input('RR', v.rr, '/min'), input('VT', v.vt, 'mL'), input('VD', round(vd, 0), 'mL')], 'west');
-        explain.co2Production = explanation('co2Production', 'CO2 production (estimate)', round(d.co2Production, 0), 'mL/min', 'VCO2 = PaCO2 x VA / 0.863', [input('PaCO2', round(g.pco2, 1), 'mmHg'), input('VA', round(va, 2), 'L/min')], 'west');
+        explain.alveolarVentilation = () => explanation('alveolarVentilation', 'Alveolar ventilation', round(va, 1), 'L/min', 'VA = RR x (VT - VD)', [input('RR', v.rr!, '/min'), input('VT', v.vt!, 'mL'), input('VD', round(vd, 0), 'mL')], 'west');
+        explain.co2Production = () => explanation('co2Production', 'CO2 production (estimate)', round(d.co2Production!, 0), 'mL/min', 'VCO2 = PaCO2 x VA / 0.863', [input('PaCO2', round(g.pco2, 1), 'mmHg'), input('VA', round(va, 2), 'L/min')], 'west');
       }
     }
     if (pbw !== null) {
       d.ventilatoryRatio = ventilatoryRatio(v.rr * v.vt, g.pco2, pbw);
-      explain.ventilatoryRatio = explanation('ventilatoryRatio', 'Ventilatory ratio', round(d.ventilatoryRatio, 2), '', '(VE mL/min x PaCO2) / (PBW x 100 x 37.5)', [input('VE', v.rr * v.vt, 'mL/min'), input('PaCO2', round(g.pco2, 1), 'mmHg'), input('PBW', round(pbw, 1), 'kg')], 'sinha2009');
+      explain.ventilatoryRatio = () => explanation('ventilatoryRatio', 'Ventilatory ratio', round(d.ventilatoryRatio!, 2), '', '(VE mL/min x PaCO2) / (PBW x 100 x 37.5)', [input('VE', v.rr! * v.vt!, 'mL/min'), input('PaCO2', round(g.pco2, 1), 'mmHg'), input('PBW', round(pbw, 1), 'kg')], 'sinha2009');
     }
   }
 
@@ -548,11 +581,11 @@ function ventilationPart(c: CanonicalCase, d: Derived, explain: Record<string, E
   else if (has(v.targetPh)) {
     const hTarget = hydrogenIon(v.targetPh);
     d.targetPco2Simple = targetPco2Simple(hTarget, g.hco3);
-    explain.targetPco2Simple = explanation('targetPco2Simple', 'Target PaCO2 (HCO3 held constant)', round(d.targetPco2Simple, 1), 'mmHg', 'PaCO2_t = [H+]_t x HCO3 / 24', [input('[H+] at target pH', round(hTarget, 1), 'nmol/L'), input('HCO3', g.hco3, 'mmol/L')], 'henderson');
+    explain.targetPco2Simple = () => explanation('targetPco2Simple', 'Target PaCO2 (HCO3 held constant)', round(d.targetPco2Simple!, 1), 'mmHg', 'PaCO2_t = [H+]_t x HCO3 / 24', [input('[H+] at target pH', round(hTarget, 1), 'nmol/L'), input('HCO3', g.hco3, 'mmol/L')], 'henderson');
     target = targetPco2Buffered(hTarget, g.hco3, g.pco2);
     out.targetSource = 'target_ph'; out.targetForm = 'acute_buffering';
     if (target === null) flags.push(flag('target_not_reachable', 'warning', { targetPh: v.targetPh }));
-    else explain.targetPco2 = explanation('targetPco2', 'Target PaCO2 (acute buffering)', round(target, 1), 'mmHg', 'PaCO2_t = [H+]_t x (HCO3 - 0.1 x PaCO2) / (24 - 0.1 x [H+]_t)', [input('Target pH', v.targetPh, ''), input('[H+] at target pH', round(hTarget, 1), 'nmol/L'), input('HCO3', g.hco3, 'mmol/L'), input('PaCO2 now', round(g.pco2, 1), 'mmHg')], 'targetPco2');
+    else explain.targetPco2 = () => explanation('targetPco2', 'Target PaCO2 (acute buffering)', round(target!, 1), 'mmHg', 'PaCO2_t = [H+]_t x (HCO3 - 0.1 x PaCO2) / (24 - 0.1 x [H+]_t)', [input('Target pH', v.targetPh!, ''), input('[H+] at target pH', round(hTarget, 1), 'nmol/L'), input('HCO3', g.hco3, 'mmol/L'), input('PaCO2 now', round(g.pco2, 1), 'mmHg')], 'targetPco2');
   } else flags.push(flag('no_ventilation_target', 'info', {}));
   d.targetPco2 = target;
   if (target === null) return out;
@@ -568,12 +601,12 @@ function ventilationPart(c: CanonicalCase, d: Derived, explain: Record<string, E
   if (has(v.rr) && has(v.vt)) {
     const rr = Math.round(rrForTarget(v.rr, g.pco2, target));
     d.suggestedRr = rr;
-    explain.suggestedRr = explanation('suggestedRr', 'RR at unchanged VT', rr, '/min', 'RR_new = RR x PaCO2 now / PaCO2 target', [input('RR', v.rr, '/min'), input('PaCO2 now', round(g.pco2, 1), 'mmHg'), input('PaCO2 target', round(target, 1), 'mmHg')], 'west');
+    explain.suggestedRr = () => explanation('suggestedRr', 'RR at unchanged VT', rr, '/min', 'RR_new = RR x PaCO2 now / PaCO2 target', [input('RR', v.rr!, '/min'), input('PaCO2 now', round(g.pco2, 1), 'mmHg'), input('PaCO2 target', round(target, 1), 'mmHg')], 'west');
     if (rr > VENTILATION.rrMax) flags.push(flag('rr_above_35', 'warning', { which: 'suggested', rr }));
     if (vd !== null && v.vt - vd > 0) {
       const vt = Math.round(vtForTarget(v.vt, vd, g.pco2, target) / 10) * 10;
       d.suggestedVt = vt;
-      explain.suggestedVt = explanation('suggestedVt', 'VT at unchanged RR', vt, 'mL', 'VT_new = VD + (VT - VD) x PaCO2 now / PaCO2 target', [input('VT', v.vt, 'mL'), input('VD', round(vd, 0), 'mL'), input('PaCO2 now', round(g.pco2, 1), 'mmHg'), input('PaCO2 target', round(target, 1), 'mmHg')], 'west');
+      explain.suggestedVt = () => explanation('suggestedVt', 'VT at unchanged RR', vt, 'mL', 'VT_new = VD + (VT - VD) x PaCO2 now / PaCO2 target', [input('VT', v.vt!, 'mL'), input('VD', round(vd, 0), 'mL'), input('PaCO2 now', round(g.pco2, 1), 'mmHg'), input('PaCO2 target', round(target, 1), 'mmHg')], 'west');
       if (pbw !== null) {
         d.suggestedVtPerKgPbw = vt / pbw;
         if (d.suggestedVtPerKgPbw > VENTILATION.vtHighPerKg) flags.push(flag('vt_above_8_ml_per_kg', 'warning', { which: 'suggested', vt, vtPerKg: round(d.suggestedVtPerKgPbw, 1) }));
@@ -643,7 +676,7 @@ function changesSince(c: CanonicalCase): Change[] {
 }
 
 /** Did the new PaCO2 follow the ventilator change as the alveolar ventilation equation predicts (West)? */
-function serialPart(c: CanonicalCase, last: PreviousGas | null, d: Derived, explain: Record<string, Explanation>): Serial | null {
+function serialPart(c: CanonicalCase, last: PreviousGas | null, d: Derived, explain: Explainers): Serial | null {
   if (!last) return null;
   const v = c.ventilator;
   const out: Serial = { last, ventilatorChanged: false, prediction: null, predictionUnavailable: null };
@@ -662,27 +695,53 @@ function serialPart(c: CanonicalCase, last: PreviousGas | null, d: Derived, expl
   const tolerance = Math.max(SERIAL.pco2Absolute, SERIAL.pco2Relative * predicted);
   out.prediction = { vaBefore, vaNow, predicted, observed, difference, verdict: Math.abs(difference) <= tolerance ? 'as_predicted' : difference > 0 ? 'higher' : 'lower' };
   d.predictedPco2 = predicted;
-  explain.predictedPco2 = explanation('predictedPco2', 'PaCO2 predicted after the ventilator change', round(predicted, 1), 'mmHg', 'PaCO2_new = PaCO2_before x VA_before / VA_now, VA = RR x (VT - VD)',
-    [input('PaCO2 before', round(last.gas.pco2, 1), 'mmHg'), input('RR before', last.rr, '/min'), input('VT before', last.vt, 'mL'), input('RR now', v.rr, '/min'), input('VT now', v.vt, 'mL'), input(d.deadSpaceMl === null ? 'VD (cancels out: VT unchanged)' : 'VD', round(vd, 0), 'mL')], 'west');
+  explain.predictedPco2 = () => explanation('predictedPco2', 'PaCO2 predicted after the ventilator change', round(predicted, 1), 'mmHg', 'PaCO2_new = PaCO2_before x VA_before / VA_now, VA = RR x (VT - VD)',
+    [input('PaCO2 before', round(last.gas.pco2, 1), 'mmHg'), input('RR before', last.rr!, '/min'), input('VT before', last.vt!, 'mL'), input('RR now', v.rr!, '/min'), input('VT now', v.vt!, 'mL'), input(d.deadSpaceMl === null ? 'VD (cancels out: VT unchanged)' : 'VD', round(vd, 0), 'mL')], 'west');
   return out;
 }
 
-const DECIMALS: Partial<Record<keyof Derived, number>> = {
-  hPlus: 1, hco3Henderson: 1, phHendersonHasselbalch: 2, anionGap: 1, anionGapCorrected: 1, deltaRatio: 2,
-  standardBaseExcess: 1, sodiumChlorideEffect: 1, albuminEffect: 1, unmeasuredIonEffect: 1,
-  apparentSid: 1, effectiveSid: 1, strongIonGap: 1, calculatedOsmolality: 1, osmolarGap: 1, urineAnionGap: 0,
-  barometricPressure: 0, alveolarPo2: 1, aaGradient: 1, aaGradientExpected: 0, pfRatio: 0, sfRatio: 0, oxygenContent: 1,
-  predictedBodyWeightKg: 1, vtPerKgPbw: 1, drivingPressure: 0, deadSpaceMl: 0, minuteVentilation: 1, alveolarVentilation: 1,
-  co2Production: 0, ventilatoryRatio: 2, targetPco2: 1, targetPco2Simple: 1, suggestedRr: 0, suggestedVt: 0, suggestedVtPerKgPbw: 1,
-  predictedPco2: 1,
-};
 
+const r = (value: number | null, decimals: number): number | null => (value === null ? null : round(value, decimals));
+
+/** Derived values rounded for reporting (the decisions above used the unrounded values). */
 function roundDerived(d: Derived) {
-  const rec = d as unknown as Record<string, unknown>;
-  for (const [key, decimals] of Object.entries(DECIMALS)) {
-    const value = rec[key];
-    if (typeof value === 'number') rec[key] = round(value, decimals as number);
-  }
+  d.hPlus = round(d.hPlus, 1);
+  d.hco3Henderson = r(d.hco3Henderson, 1);
+  d.phHendersonHasselbalch = r(d.phHendersonHasselbalch, 2);
+  d.anionGap = r(d.anionGap, 1);
+  d.anionGapCorrected = r(d.anionGapCorrected, 1);
+  d.deltaRatio = r(d.deltaRatio, 2);
+  d.standardBaseExcess = r(d.standardBaseExcess, 1);
+  d.sodiumChlorideEffect = r(d.sodiumChlorideEffect, 1);
+  d.albuminEffect = r(d.albuminEffect, 1);
+  d.unmeasuredIonEffect = r(d.unmeasuredIonEffect, 1);
+  d.apparentSid = r(d.apparentSid, 1);
+  d.effectiveSid = r(d.effectiveSid, 1);
+  d.strongIonGap = r(d.strongIonGap, 1);
+  d.calculatedOsmolality = r(d.calculatedOsmolality, 1);
+  d.osmolarGap = r(d.osmolarGap, 1);
+  d.urineAnionGap = r(d.urineAnionGap, 0);
+  d.barometricPressure = r(d.barometricPressure, 0);
+  d.alveolarPo2 = r(d.alveolarPo2, 1);
+  d.aaGradient = r(d.aaGradient, 1);
+  d.aaGradientExpected = r(d.aaGradientExpected, 0);
+  d.pfRatio = r(d.pfRatio, 0);
+  d.sfRatio = r(d.sfRatio, 0);
+  d.oxygenContent = r(d.oxygenContent, 1);
+  d.predictedBodyWeightKg = r(d.predictedBodyWeightKg, 1);
+  d.vtPerKgPbw = r(d.vtPerKgPbw, 1);
+  d.drivingPressure = r(d.drivingPressure, 0);
+  d.deadSpaceMl = r(d.deadSpaceMl, 0);
+  d.minuteVentilation = r(d.minuteVentilation, 1);
+  d.alveolarVentilation = r(d.alveolarVentilation, 1);
+  d.co2Production = r(d.co2Production, 0);
+  d.ventilatoryRatio = r(d.ventilatoryRatio, 2);
+  d.targetPco2 = r(d.targetPco2, 1);
+  d.targetPco2Simple = r(d.targetPco2Simple, 1);
+  d.suggestedRr = r(d.suggestedRr, 0);
+  d.suggestedVt = r(d.suggestedVt, 0);
+  d.suggestedVtPerKgPbw = r(d.suggestedVtPerKgPbw, 1);
+  d.predictedPco2 = r(d.predictedPco2, 1);
   for (const key of ['expectedPco2', 'expectedHco3'] as const) {
     const b = d[key];
     if (b) d[key] = { low: round(b.low, 1), high: round(b.high, 1) };

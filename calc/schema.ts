@@ -192,10 +192,11 @@ export function rangeText(range: Range, units: Units): string {
   return `${show(range.min)}-${show(range.max)}${unit ? ' ' + unit : ''}`;
 }
 
-function checkRange(value: number | null | undefined, range: Range, units: Units, path: string, errors: FieldError[]) {
+function checkRange(value: number | null | undefined, range: Range, units: Units, path: string | (() => string), errors: FieldError[]) {
   if (value === null || value === undefined) return;
   const canonical = range.kind ? toCanonical(range.kind, value, units) : value;
   if (canonical < range.min || canonical > range.max) {
+    if (typeof path === 'function') path = path();
     const unit = range.kind ? unitLabel(range.kind, units) : range.unit;
     const hint = range.kind === 'pressure' ? pressureHint(value, units) : '';
     errors.push({ path, message: `${range.label} ${value}${unit ? ' ' + unit : ''} is outside ${rangeText(range, units)}: check the value${hint}` });
@@ -209,10 +210,19 @@ function pressureHint(value: number, units: Units): string {
   return '';
 }
 
+const ENTRIES = new WeakMap<Record<string, Range>, [string, Range][]>();
+/** The entries of a ranges table, listed once. */
+function entriesOf(ranges: Record<string, Range>): [string, Range][] {
+  let entries = ENTRIES.get(ranges);
+  if (!entries) ENTRIES.set(ranges, (entries = Object.entries(ranges)));
+  return entries;
+}
+
 function checkGroup(group: Record<string, unknown> | null | undefined, ranges: Record<string, Range>, units: Units, prefix: string, errors: FieldError[]) {
   if (!group) return;
-  for (const [key, range] of Object.entries(ranges)) {
-    checkRange(group[key] as number | null | undefined, range, units, `${prefix}.${key}`, errors);
+  for (const [key, range] of entriesOf(ranges)) {
+    const value = group[key] as number | null | undefined;
+    if (value !== null && value !== undefined) checkRange(value, range, units, () => `${prefix}.${key}`, errors);
   }
 }
 
@@ -272,7 +282,8 @@ export function toFieldErrors(error: { issues: readonly z.core.$ZodIssue[] }): F
   for (const issue of error.issues) {
     const base = issue.path.map(String);
     if (issue.code === 'unrecognized_keys') {
-      for (const key of issue.keys) out.push({ path: [...base, key].join('.'), message: `Unknown field "${key}": check its spelling against the contract` });
+      // an empty key is written "" so that the error still names a path
+      for (const key of issue.keys) out.push({ path: [...base, key === '' ? '""' : key].join('.'), message: `Unknown field "${key}": check its spelling against the contract` });
     } else {
       out.push({ path: base.join('.') || '(body)', message: issue.code === 'invalid_type' && base.length === 0 ? 'The case must be a JSON object with at least a gas' : issue.message });
     }

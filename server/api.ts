@@ -2,7 +2,7 @@
 import { Hono, type Context } from 'hono';
 import { bodyLimit } from 'hono/body-limit';
 import { zValidator } from '@hono/zod-validator';
-import { caseSchema, interpret, toFieldErrors, type Findings, type InterpretOptions } from '../calc/index.ts';
+import { caseSchema, interpret, interpretParsed, toFieldErrors, type Findings, type InterpretOptions } from '../calc/index.ts';
 import type { NoteRenderer } from '../templates/index.ts';
 import { BODY_LIMIT_BYTES, jsonError } from './errors.ts';
 import { caseFromFhir, type FhirResult } from './intake/index.ts';
@@ -89,8 +89,8 @@ export function apiRoutes(deps: ApiDeps): Hono {
       if (!result.success) return c.json({ ok: false, errors: toFieldErrors(result.error) }, 422);
     }),
     (c) => {
-      // the schema already passed in the validator; interpret() also rejects an implausible worked-out value
-      const result = interpret(c.req.valid('json'), deps.interpretOptions);
+      // the schema already passed in the validator; the core still rejects an implausible worked-out value
+      const result = interpretParsed(c.req.valid('json'), deps.interpretOptions);
       if (!result.ok) return c.json({ ok: false, errors: result.errors }, 422);
       return c.json(interpretResponse(result, deps.renderer, noteFormat(c)));
     },
