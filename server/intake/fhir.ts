@@ -56,6 +56,12 @@ const SAME_SAMPLE_MS = 5 * 60 * 1000;
 type Json = Record<string, unknown>;
 const isObject = (x: unknown): x is Json => typeof x === 'object' && x !== null && !Array.isArray(x);
 const str = (x: unknown): string | undefined => (typeof x === 'string' ? x : undefined);
+/** Any sent value as short text for a message: never String() on an object (its own toString may throw). */
+const text = (x: unknown): string => {
+  if (typeof x === 'string') return x.slice(0, 200);
+  if (typeof x === 'number' || typeof x === 'boolean') return String(x);
+  return x === null || x === undefined ? '' : Array.isArray(x) ? 'a list' : 'an object';
+};
 
 interface Item {
   entry: LoincEntry;
@@ -86,12 +92,12 @@ export function caseFromFhir(json: unknown): FhirResult {
   const located = resources(payload, result);
   for (const { resource, fullUrl } of located) {
     if (fullUrl) state.known.add(fullUrl);
-    if (isObject(resource) && resource.resourceType && resource.id) state.known.add(`${String(resource.resourceType)}/${String(resource.id)}`);
+    if (isObject(resource) && resource.resourceType && resource.id) state.known.add(`${text(resource.resourceType)}/${text(resource.id)}`);
   }
   for (const { resource, source } of located) {
     if (!isObject(resource)) { result.errors.push({ path: source, message: 'A resource must be a JSON object' }); continue; }
     if (resource.resourceType !== 'Observation') {
-      result.unused.push({ code: null, display: String(resource.resourceType ?? 'unknown resource'), reason: 'not an Observation: not read', source });
+      result.unused.push({ code: null, display: text(resource.resourceType ?? 'unknown resource'), reason: 'not an Observation: not read', source });
       continue;
     }
     readObservation(resource, source, state);
@@ -117,7 +123,7 @@ function resources(payload: unknown, result: FhirResult): Located[] {
   if (!isObject(payload)) { result.errors.push({ path: '(body)', message: 'Send a FHIR Bundle, a list of Observations or one Observation' }); return []; }
   if (payload.resourceType === 'Observation') return [{ resource: payload, source: 'Observation' }];
   if (payload.resourceType !== 'Bundle') {
-    result.errors.push({ path: 'resourceType', message: `A ${String(payload.resourceType ?? 'resource without resourceType')} is not read: send a Bundle, a list of Observations or one Observation` });
+    result.errors.push({ path: 'resourceType', message: `A ${text(payload.resourceType ?? 'resource without resourceType')} is not read: send a Bundle, a list of Observations or one Observation` });
     return [];
   }
   const type = str(payload.type);
@@ -221,7 +227,7 @@ function readValue(node: Json, obs: Json, source: string, effective: string | nu
     return;
   }
   if (q.comparator !== undefined) {
-    result.unused.push({ code: entry.code, display, reason: `the value is a bound (${String(q.comparator)} ${String(q.value)}), not a number to work with`, source });
+    result.unused.push({ code: entry.code, display, reason: `the value is a bound (${text(q.comparator)} ${text(q.value)}), not a number to work with`, source });
     return;
   }
   if (typeof q.value !== 'number' || !Number.isFinite(q.value)) {
