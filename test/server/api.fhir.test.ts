@@ -78,12 +78,11 @@ describe('FHIR R4 through the API', () => {
   });
 
   it('hostile shapes are answered, never a 500 (found by the HTTP fuzz)', async () => {
-    let deep: unknown = 1;
-    for (let i = 0; i < 12000; i++) deep = [deep];
+    const deep = '['.repeat(12000) + '1' + ']'.repeat(12000);
     for (const payload of [
       '{"resourceType":{"toString":1}}',
       '{"resourceType":"Observation","id":{"valueOf":1},"code":{"coding":[{"system":"http://loinc.org","code":"2744-1"}]},"valueQuantity":{"comparator":{"toString":1},"value":7.3}}',
-      JSON.stringify({ resourceType: 'Observation', id: deep, status: 'final' }),
+      `{"resourceType":"Observation","status":"final","id":${deep}}`,
     ]) {
       const res = await post(payload);
       expect(res.status, payload.slice(0, 60)).toBeLessThan(500);
