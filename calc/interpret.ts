@@ -257,7 +257,9 @@ function readCase(c: CanonicalCase): Findings {
   const classification: Classification = classify({
     ph: g.ph, pco2: venousEstimate ? g.pco2 - VENOUS.pco2Mid : g.pco2, hco3: g.hco3, timing: c.context.timing, reference, anionGap: ag,
     pco2Basis: venousEstimate ? 'venous_estimate' : 'measured',
-    pco2Range: venousEstimate ? { low: g.pco2 - VENOUS.pco2High, high: g.pco2 - VENOUS.pco2Low } : undefined,
+    // the arterial PCO2 lies at or below the venous one, on average 4-6 mmHg lower: an added respiratory process
+    // is named only when the whole span from venous - 6 to the venous value itself is outside the band
+    pco2Range: venousEstimate ? { low: g.pco2 - VENOUS.pco2High, high: g.pco2 } : undefined,
   });
   derived.expectedPco2 = classification.expectedPco2;
   derived.expectedHco3 = classification.expectedHco3;

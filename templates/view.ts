@@ -48,7 +48,7 @@ export interface NoteView {
     rule: string; timing: string; verdict: string; fit: string | null; metabolic: boolean;
     expected: Text; observed: Text; acute: Text; chronic: Text; otherTimingFits: 'acute' | 'chronic' | null;
     /** a venous PCO2 judged by its arterial estimate: the measured value and the estimated arterial span */
-    venous: { measured: Text; arterial: Text } | null;
+    venous: { measured: Text; arterial: Text; span: Text } | null;
   } | null;
   reference: { kind: string; pco2: Text; hco3: Text; pco2Band: Text; hco3Band: Text; pco2Estimated: boolean; hco3Estimated: boolean; usualPhIgnored: boolean };
   consistency: { reported: Text; calculated: Text } | null;
@@ -155,7 +155,11 @@ export function buildView(f: Findings, format: NoteFormat): NoteView {
     observed: comp.rule === 'winters' || comp.rule === 'metabolic_alkalosis' ? fmt.pressure(comp.observed) : fmt.mmol(comp.observed),
     acute: fmt.mmolBand(comp.acute), chronic: fmt.mmolBand(comp.chronic),
     venous: comp.pco2Basis === 'venous_estimate'
-      ? { measured: fmt.pressure(g.pco2), arterial: fmt.pressureBand({ low: g.pco2 - R.VENOUS.pco2High, high: g.pco2 - R.VENOUS.pco2Low }) }
+      ? {
+        measured: fmt.pressure(g.pco2),
+        arterial: fmt.pressureBand({ low: g.pco2 - R.VENOUS.pco2High, high: g.pco2 - R.VENOUS.pco2Low }),
+        span: fmt.pressureBand({ low: g.pco2 - R.VENOUS.pco2High, high: g.pco2 }),
+      }
       : null,
     otherTimingFits: comp.verdict === 'within' ? null
       : comp.timing === 'acute' && (comp.fit === 'chronic' || comp.fit === 'either') ? 'chronic' as const
