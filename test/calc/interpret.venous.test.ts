@@ -33,6 +33,13 @@ describe('venous compensation judgement', () => {
     expect(named(f)).toContain('respiratory_acidosis');
   });
 
+  it('no added respiratory alkalosis on an estimate alone: venous 38 (arterial 32-38) against Winters 36.8 +/- 2', () => {
+    // invented: an elderly woman with sepsis in the emergency department; 1.5 x 19.2 + 8 = 36.8
+    const f = read({ sample: 'venous', gas: { ph: 7.32, pco2: 38, hco3: 19.2 } });
+    expect(f.compensation?.verdict).toBe('within');
+    expect(named(f)).toEqual(['metabolic_acidosis']);
+  });
+
   it('a very low venous PCO2 is judged as measured (no negative arterial estimate)', () => {
     const f = read({ sample: 'venous', gas: { ph: 7.5, pco2: 12, hco3: 9.4 } });
     expect(f.compensation?.pco2Basis).toBe('measured');
