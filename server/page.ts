@@ -7,7 +7,9 @@ import type { NoteRenderer } from '../templates/index.ts';
 import { BODY_LIMIT_BYTES } from './errors.ts';
 import { mediaType } from './api.ts';
 import { staticRoutes } from './static.ts';
-import { answerStep, contextFor, emptyState, readState, statuses, type FlowState } from '../views/flow.ts';
+import { answerStep, awaitingFollowUp, cancelFollowUp, contextFor, emptyState, readState, startFollowUp, statuses, type FlowState } from '../views/flow.ts';
+import { confirmPaste, fingerprint, intakeOf, pasteView, withChosenSample, type RawIntake } from '../views/paste.ts';
+import { caseFromFhir, parsePaste, MAX_PASTE_CHARS } from './intake/index.ts';
 import { flowView, markdownPreview, renderFragment, renderPage, renderPreview, renderProblem, type Presentation } from '../views/render.ts';
 import { STEPS, isStepId, summary, type FormValues, type StepId } from '../views/steps.ts';
 
@@ -20,6 +22,29 @@ const FORM_TYPES = new Set(['application/x-www-form-urlencoded', 'multipart/form
 
 const isHtmx = (c: Context) => c.req.header('hx-request') === 'true';
 
+// A paste may be a whole printout or FHIR payload (up to MAX_PASTE_CHARS characters), and URL-encoding can
+// triple punctuation-heavy text such as JSON: the paste form gets more room than the step forms.
+const PASTE_BODY_LIMIT = 512 * 1024;
+
+const isObject = (x: unknown): x is Record<string, unknown> => x !== null && typeof x === 'object' && !Array.isArray(x);
+const isResource = (x: unknown) => isObject(x) && typeof x.resourceType === 'string';
+
+/** Which intake reads the text: JSON with a resourceType goes to the FHIR intake, any other text to the paste intake. */
+export function readIntake(text: string): RawIntake {
+  if (text.trim() === '') return { kind: 'empty' };
+  if (text.length > MAX_PASTE_CHARS) return { kind: 'too-long', limit: MAX_PASTE_CHARS, length: text.length };
+  const trimmed = text.trim();
+  if (trimmed.startsWith('{') || trimmed.startsWith('[')) {
+    let json: unknown;
+    try { json = JSON.parse(trimmed); } catch { json = undefined; }
+    if (json !== undefined) {
+      if (isResource(json) || (Array.isArray(json) && json.length > 0 && json.every(isResource))) return { kind: 'fhir', result: caseFromFhir(json) };
+      return { kind: 'json-not-fhir' };
+    }
+  }
+  return { kind: 'paste', result: parsePaste(text) };
+}
+
 const NO_STORE = { 'cache-control': 'no-store', vary: 'HX-Request' };
 
 function problem(c: Context, status: 400 | 413 | 415, message: string) {
@@ -27,9 +52,15 @@ function problem(c: Context, status: 400 | 413 | 415, message: string) {
 }
 
 /** Form fields as strings; a file or a repeated name is not something these forms send. */
-async function readForm(c: Context): Promise<FormValues | null> {
+async function readForm(c: Context): Promise<FormValues | null | 'malformed'> {
   if (!FORM_TYPES.has(mediaType(c))) return null;
-  const body = await c.req.parseBody();
+  let body: Awaited<ReturnType<typeof c.req.parseBody>>;
+  try {
+    body = await c.req.parseBody();
+  } catch {
+    // a multipart body without its boundary, or garbage: the client's fault, answered as such
+    return 'malformed';
+  }
   const out: FormValues = {};
   for (const [key, value] of Object.entries(body)) {
     if (typeof value === 'string') out[key] = value;
@@ -65,6 +96,7 @@ export function pageRoutes(deps: PageDeps): Hono {
   const withState = async (c: Context): Promise<{ form: FormValues; state: FlowState } | Response> => {
     const form = await readForm(c);
     if (!form) return problem(c, 415, 'Send the form as an ordinary form post.');
+    if (form === 'malformed') return problem(c, 400, 'The form could not be read: send it again from the page.');
     const read = readState(form);
     if (!read.ok) return problem(c, 400, read.message);
     return { form, state: read.state };
@@ -74,7 +106,7 @@ export function pageRoutes(deps: PageDeps): Hono {
 
   page.get('/', (c) => send(c, emptyState(), { announce: '' }));
   // after a post without script the address bar shows the post's path: a reload or a bookmark starts afresh
-  for (const path of ['/step', '/open', '/preview']) page.get(path, (c) => c.redirect('/', 303));
+  for (const path of ['/step', '/open', '/preview', '/paste', '/followup']) page.get(path, (c) => c.redirect('/', 303));
 
   page.post('/step', limit, async (c) => {
     const got = await withState(c);
@@ -97,6 +129,10 @@ export function pageRoutes(deps: PageDeps): Hono {
     if (got instanceof Response) return got;
     const { form, state } = got;
     const open = form.open ?? '';
+    if (open === 'cancel-followup') {
+      const restored = cancelFollowUp(state);
+      if (restored) return send(c, restored, { announce: 'Follow-up cancelled: the gas is the current gas again.' });
+    }
     if (isStepId(open)) {
       const status = statuses(state, contextFor(state, deps.interpretOptions)).find((s) => s.id === open)!;
       const canOpen = status.status === 'done' || (status.status === 'skipped' && open === 'timing');
@@ -113,6 +149,51 @@ export function pageRoutes(deps: PageDeps): Hono {
     const note = form.note ?? '';
     if (isHtmx(c)) return c.html(renderPreview(markdownPreview(note)), 200, NO_STORE);
     return send(c, { ...state, format: 'markdown' }, { edited: { note, handover: form.handover ?? '' }, keepFocus: true, announce: 'Preview updated.' });
+  });
+
+  // a paste on the first step: read it and show what was read; on confirm, fill the case and go on
+  const pasteLimit = bodyLimit({ maxSize: PASTE_BODY_LIMIT, onError: (c) => problem(c, 413, `The pasted text is too long: paste the result lines only (at most ${MAX_PASTE_CHARS} characters).`) });
+  page.post('/paste', pasteLimit, async (c) => {
+    const got = await withState(c);
+    if (got instanceof Response) return got;
+    const { form, state } = got;
+    if ('gas' in state.answers || awaitingFollowUp(state.answers)) return problem(c, 400, 'A paste starts a new case: this case already holds a gas. Start a new case to paste another.');
+    const action = form.action ?? 'read';
+    if (action === 'cancel') return send(c, state, { announce: 'Enter the values step by step.' });
+    const text = form.paste ?? '';
+    const intake = withChosenSample(intakeOf(readIntake(text), text), state.answers.sample);
+    if (action === 'confirm') {
+      // confirm only what was shown: a text changed since it was read is read again and shown first
+      if (form.pasteRead !== fingerprint(text)) {
+        const view = pasteView(intake, null, [], 'The text changed after it was read: here is what was read from it now. Check it, then use it.');
+        return send(c, state, { open: 'sample', paste: view, announce: 'The text changed: check what was read from it now.' });
+      }
+      const outcome = confirmPaste(state, intake, form, deps.interpretOptions);
+      if (outcome.ok) return send(c, outcome.state, { announce: outcome.announce, pasted: outcome.remarks });
+      const view = pasteView(intake, form, outcome.errors);
+      return send(c, state, { open: 'sample', paste: view, announce: `Not used yet: ${outcome.errors[0]!.message}` }, 422);
+    }
+    const view = pasteView(intake, null);
+    const n = intake.read.length;
+    const announce = view.canConfirm
+      ? `Read ${n} value${n === 1 ? '' : 's'}${intake.questions.length ? ` and ${intake.questions.length} question${intake.questions.length === 1 ? '' : 's'} to answer` : ''}: check them, then use them.`
+      : `Nothing could be used: ${intake.problems[0] ?? 'no result was read'}`;
+    return send(c, state, { open: 'sample', paste: view, announce }, view.canConfirm ? 200 : 422);
+  });
+
+  // the current gas becomes an earlier one; the gas (and oxygen and ventilator) steps open for the follow-up
+  page.post('/followup', limit, async (c) => {
+    const got = await withState(c);
+    if (got instanceof Response) return got;
+    const { form, state } = got;
+    const typed = form.when ?? '';
+    const outcome = startFollowUp(state, typed);
+    if (!outcome.ok) {
+      if (!('gas' in state.answers)) return problem(c, 400, outcome.message);
+      return send(c, state, { followUp: { error: outcome.message, typed }, announce: outcome.message }, 422);
+    }
+    const what = [outcome.moved.takenAt, outcome.moved.label].filter(Boolean).join(', ');
+    return send(c, outcome.state, { announce: `The gas${what ? ` (${String(what)})` : ''} is now the earlier gas. Enter the follow-up gas.` });
   });
 
   return page;

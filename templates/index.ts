@@ -28,12 +28,18 @@ const FLAG_MESSAGE_SOURCE = '{% import "flag.njk" as fl %}{{ fl.message(flag) }}
  * Whitespace inside a paragraph becomes single spaces; no space is left before punctuation, and a sentence
  * that a template tag ran into the next one gets its space back.
  */
+const SPACES = /\s+/g;
+const SPACE_BEFORE_PUNCTUATION = / ([,.;:)])/g;
+const SPACE_AFTER_BRACKET = /\( /g;
+const MISSING_SPACE = /([.;:])(?=[A-Z])/g;
+
 export function paragraph(value: unknown): string {
+  // whitespace first collapses to single spaces, so the later patterns need only look for one
   return String(value ?? '')
-    .replace(/\s+/g, ' ')
-    .replace(/\s+([,.;:)])/g, '$1')
-    .replace(/\(\s+/g, '(')
-    .replace(/([.;:])(?=[A-Z])/g, '$1 ')
+    .replace(SPACES, ' ')
+    .replace(SPACE_BEFORE_PUNCTUATION, '$1')
+    .replace(SPACE_AFTER_BRACKET, '(')
+    .replace(MISSING_SPACE, '$1 ')
     .trim();
 }
 

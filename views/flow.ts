@@ -2,6 +2,7 @@
 // Nothing is kept on the server: every request brings the case in a hidden field, and the same
 // zod schema checks it every time before anything is read from it.
 import { caseShape, interpret, parseCase, type FieldError, type Findings, type InterpretOptions } from '../calc/index.ts';
+import { MAX_PREVIOUS_GASES } from '../calc/schema.ts';
 import {
   STEPS, STEP_IDS, applyStep, contextOf, getPath, isStepId, ownedPaths, setPath,
   type FormValues, type Json, type StepContext, type StepId,
@@ -21,11 +22,28 @@ export type ReadResult = { ok: true; state: FlowState } | { ok: false; message: 
 
 const isObject = (x: unknown): x is Json => x !== null && typeof x === 'object' && !Array.isArray(x);
 
-/** Check a case that travelled with a request. Before the gas is given only the sample and units may be present. */
+/** The earlier gases of a case, when it holds any. */
+export const earlierGases = (answers: Json): Json[] =>
+  Array.isArray(answers.previous) ? answers.previous.filter(isObject) : [];
+
+/** A follow-up is under way: the last gas has become an earlier one and the new gas is not yet entered. */
+export const awaitingFollowUp = (answers: Json): boolean => !('gas' in answers) && Array.isArray(answers.previous) && answers.previous.length > 0;
+
+/**
+ * Check a case that travelled with a request. Before the gas is given only the sample and units may be present,
+ * except while a follow-up gas is awaited: then the rest of the case is checked with the last earlier gas standing
+ * in for the gas (it is never interpreted), so that chemistry, patient and context can wait with it.
+ */
 export function checkAnswers(answers: Json): FieldError[] {
   if ('gas' in answers) {
     const parsed = parseCase(answers);
     return parsed.ok ? [] : parsed.errors;
+  }
+  if (awaitingFollowUp(answers)) {
+    const last = (answers.previous as unknown[]).at(-1);
+    const standIn = isObject(last) ? last.gas : undefined;
+    const parsed = parseCase({ ...answers, gas: standIn });
+    return parsed.ok ? [] : parsed.errors.filter((e) => e.path !== 'gas' && !e.path.startsWith('gas.'));
   }
   const errors: FieldError[] = [];
   for (const key of Object.keys(answers)) {
@@ -50,8 +68,9 @@ export function readState(form: FormValues): ReadResult {
   const errors = checkAnswers(answers);
   if (errors.length) return { ok: false, message: `The case sent with the form did not pass the checks: ${errors.map((e) => `${e.path}: ${e.message}`).join('; ')}` };
   const done = [...new Set((form.done ?? '').split(/[\s,]+/).filter(isStepId))];
-  // a step counts as answered only with the gas behind it
-  const state: FlowState = { answers, done: 'gas' in answers ? done : done.filter((s) => s === 'sample'), format: form.format === 'markdown' ? 'markdown' : 'text' };
+  // a step counts as answered only with the gas behind it (or, during a follow-up, the earlier gas)
+  const held = 'gas' in answers || awaitingFollowUp(answers);
+  const state: FlowState = { answers, done: held ? done.filter((s) => s !== 'gas' || 'gas' in answers) : done.filter((s) => s === 'sample'), format: form.format === 'markdown' ? 'markdown' : 'text' };
   return { ok: true, state };
 }
 
@@ -107,6 +126,10 @@ export function answerStep(state: FlowState, id: StepId, form: FormValues, skip:
   if (id === 'gas') {
     const before = getPath(state.answers, 'units.pressure') ?? 'mmHg';
     const after = getPath(answers, 'units.pressure') ?? 'mmHg';
+    if (before !== after && earlierGases(answers).length) {
+      // the earlier gases were entered in the old unit and are not converted behind the clinician's back
+      return { state, invalid: { step: id, errors: [{ path: 'units.pressure', message: `The earlier gases of this case are in ${before}: enter the follow-up gas in ${before} too, or start a new case` }], typed: form }, reopened: [] };
+    }
     if (before !== after) {
       // other pressures in the case were entered in the old unit: ask for them again in the new one
       if (getPath(answers, 'context.baseline.pco2') !== undefined) reopened.push('timing');
@@ -137,7 +160,7 @@ export function answerStep(state: FlowState, id: StepId, form: FormValues, skip:
  * A PCO2 that fits the other pressure unit better (the core's unit screen) is asked about at the field,
  * once; pressing Next again with the same unit keeps it, and the core then withholds the reading and says why.
  */
-function unitQuestion(answers: Json, form: FormValues, options?: InterpretOptions): FieldError | null {
+export function unitQuestion(answers: Json, form: FormValues, options?: InterpretOptions): FieldError | null {
   const f = findingsOf(answers, options);
   if (!f || !f.flags.some((x) => x.code === 'unit_ambiguous')) return null;
   const unit = String(getPath(answers, 'units.pressure') ?? 'mmHg');
@@ -161,4 +184,68 @@ export function placeErrors(id: StepId, errors: FieldError[], ctx: StepContext):
     else step.push(e);
   }
   return { fields, step };
+}
+
+// ---------- a follow-up gas ----------
+
+/** An ISO-like date and time (2026-03-02T04:10, 2026-03-02 04:10, 2026-03-02): kept as takenAt; other words are a label. */
+const DATE_TIME = /^\d{4}-\d{2}-\d{2}(?:[T ]\d{2}:\d{2}(?::\d{2})?)?$/;
+const MAX_WHEN = 80;
+
+export type FollowUpOutcome = { ok: true; state: FlowState; moved: Json } | { ok: false; message: string };
+
+/**
+ * Move the current gas, with its FiO2 and PEEP and its VT and RR, into the earlier gases, and open the gas,
+ * oxygen and ventilator steps for the new values. Chemistry, patient and context stay; the oxygen and
+ * ventilator answers stay in the forms as a starting point, to be confirmed for the new gas.
+ */
+export function startFollowUp(state: FlowState, when: string): FollowUpOutcome {
+  const answers = structuredClone(state.answers);
+  if (!isObject(answers.gas)) return { ok: false, message: 'There is no gas to follow up yet.' };
+  const earlier = earlierGases(answers);
+  if (earlier.length >= MAX_PREVIOUS_GASES) {
+    return { ok: false, message: `This case already holds ${MAX_PREVIOUS_GASES} earlier gases, the most it can: start a new case for the next gas.` };
+  }
+  const text = when.trim().replace(/\s+/g, ' ');
+  if (text.length > MAX_WHEN) return { ok: false, message: `Keep the time or label to ${MAX_WHEN} characters or fewer (it has ${text.length}).` };
+  const moved: Json = {};
+  if (text && DATE_TIME.test(text) && text.length <= 40) moved.takenAt = text;
+  else if (text) moved.label = text;
+  moved.gas = answers.gas;
+  const oxygen = pick(answers.oxygen, ['fio2', 'peep']);
+  if (oxygen) moved.oxygen = oxygen;
+  const ventilator = pick(answers.ventilator, ['vt', 'rr']);
+  if (ventilator) moved.ventilator = ventilator;
+  answers.previous = [...earlier, moved];
+  delete answers.gas;
+  const errors = checkAnswers(answers);
+  if (errors.length) return { ok: false, message: `The earlier gas could not be kept: ${errors.map((e) => e.message).join('; ')}.` };
+  const done = state.done.filter((s) => s !== 'gas' && s !== 'oxygen' && s !== 'ventilator');
+  return { ok: true, state: { ...state, answers, done }, moved };
+}
+
+/** Undo a follow-up not yet entered: the last earlier gas becomes the current gas again. */
+export function cancelFollowUp(state: FlowState): FlowState | null {
+  if (!awaitingFollowUp(state.answers)) return null;
+  const answers = structuredClone(state.answers);
+  const earlier = earlierGases(answers);
+  const last = earlier.pop();
+  if (!last || !isObject(last.gas)) return null;
+  answers.gas = last.gas;
+  if (earlier.length) answers.previous = earlier; else delete answers.previous;
+  // the oxygen and ventilator answers stayed in the case; the earlier gas's own FiO2, PEEP, VT and RR are put back
+  for (const [group, keys] of [['oxygen', ['fio2', 'peep']], ['ventilator', ['vt', 'rr']]] as const) {
+    const from = isObject(last[group]) ? last[group] : {};
+    for (const key of keys) setPath(answers, `${group}.${key}`, (from as Json)[key] ?? undefined);
+  }
+  if (checkAnswers(answers).length) return null;
+  const restored = new Set<StepId>([...state.done, 'gas', 'oxygen', ...(isObject(answers.ventilator) ? ['ventilator' as const] : [])]);
+  return { ...state, answers, done: STEP_IDS.filter((s) => restored.has(s)) };
+}
+
+function pick(group: unknown, keys: string[]): Json | null {
+  if (!isObject(group)) return null;
+  const out: Json = {};
+  for (const key of keys) if (group[key] !== undefined && group[key] !== null) out[key] = group[key];
+  return Object.keys(out).length ? out : null;
 }

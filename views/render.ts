@@ -5,9 +5,12 @@ import nunjucks from 'nunjucks';
 import { marked } from 'marked';
 import sanitizeHtml from 'sanitize-html';
 import { units as U, type FieldError, type Findings, type InterpretOptions } from '../calc/index.ts';
+import { GAS_RANGES, MAX_PREVIOUS_GASES } from '../calc/schema.ts';
 import type { NoteRenderer } from '../templates/index.ts';
-import { STEPS, formValue, summary, type FieldDef, type FormValues, type Group, type StepContext, type StepId } from './steps.ts';
-import { contextFor, findingsOf, placeErrors, statuses, type FlowState, type Format } from './flow.ts';
+import { STEPS, formValue, gasLabel, summary, type FieldDef, type FormValues, type Group, type Json, type StepContext, type StepId } from './steps.ts';
+import { awaitingFollowUp, contextFor, earlierGases, findingsOf, placeErrors, statuses, type FlowState, type Format } from './flow.ts';
+import { acidBaseMap } from './map.ts';
+import type { PasteView } from './paste.ts';
 
 const VIEWS_DIR = fileURLToPath(new URL('.', import.meta.url));
 
@@ -30,6 +33,12 @@ export interface Presentation {
   reopened?: StepId[];
   /** leave the focus where it was (a format switch), instead of moving it to the draft */
   keepFocus?: boolean;
+  /** the confirm view of a paste, shown in place of the first step */
+  paste?: PasteView | null;
+  /** remarks for the step opened after a paste: what it filled, what is left to enter */
+  pasted?: string[];
+  /** the follow-up form on the draft, refused with its message and what was typed */
+  followUp?: { error: string; typed: string } | null;
 }
 
 const fieldId = (name: string) => `f-${name.replace(/[^a-zA-Z0-9]+/g, '-')}`;
@@ -78,8 +87,12 @@ function formView(id: StepId, ctx: StepContext, state: FlowState, p: Presentatio
   const stepErrors = placed.step.map((e) => ({ message: e.message, href: null as string | null }));
   const fieldErrors = flat.filter((f) => f.error).map((f) => ({ message: f.error!, href: `#${f.id}` }));
   const last = statuses({ ...state, done: [...state.done.filter((s) => s !== id), id] }, ctx).every((s) => s.status !== 'todo');
+  // a paste starts a case: offered on the first step, and from the gas step while no gas is entered
+  const fresh = !('gas' in ctx.answers) && !awaitingFollowUp(ctx.answers);
   return {
-    type: 'form', id, title: step.title, question: step.question, remarks: step.remarks(ctx), groups: views,
+    type: 'form', id, title: step.title, question: step.question, remarks: [...(p.pasted ?? []), ...step.remarks(ctx)], groups: views,
+    paste: id === 'sample' && fresh,
+    pasteLink: id === 'gas' && fresh && state.done.includes('sample'),
     summaryErrors: [...stepErrors, ...fieldErrors], skippable: !!step.skippable,
     quick: flat.some((f) => f.kind === 'quick'),
     reopened: (p.reopened ?? []).includes(id),
@@ -117,6 +130,23 @@ export function markdownPreview(text: string): string {
   });
 }
 
+/** The acid-base map and its words; a drawing it cannot make leaves the draft without it rather than failing. */
+function mapView(f: Findings) {
+  try {
+    // the drawing's own size (680 wide, its labels laid out for it); the key grows one row per gas, up to six
+    const map = acidBaseMap(f, { height: 660 + Math.min(f.previous.length, 5) * 16 });
+    return { svg: map.svg, lines: map.text.split('\n').filter((line) => line.trim() !== '') };
+  } catch (e) {
+    if (e instanceof RangeError) return null;
+    throw e;
+  }
+}
+
+function followUpView(answers: Json, p: Presentation) {
+  const count = earlierGases(answers).length;
+  return { can: count < MAX_PREVIOUS_GASES, count, max: MAX_PREVIOUS_GASES, error: p.followUp?.error ?? null, value: p.followUp?.typed ?? '' };
+}
+
 function draftView(f: Findings, format: Format, deps: RenderDeps, edited: Presentation['edited']) {
   const note = deps.renderer.render(f, { format });
   const text = edited?.note ?? note.text;
@@ -128,6 +158,7 @@ function draftView(f: Findings, format: Format, deps: RenderDeps, edited: Presen
     edited: !!edited,
     previewHtml: format === 'markdown' ? markdownPreview(text) : null,
     flags: f.flags.map((flag) => ({ severity: flag.severity, label: SEVERITY_LABEL[flag.severity], message: deps.renderer.flagMessage(flag, f) })),
+    map: mapView(f),
     explain: Object.values(f.explain).map((e) => ({
       key: e.key, label: e.label, value: valueText(e.value, e.unit, f.units), formula: e.formula, source: e.source,
       inputs: e.inputs.map((i) => `${i.name} ${valueText(i.value, i.unit, f.units)}`).join('; '),
@@ -142,14 +173,16 @@ export function flowView(state: FlowState, deps: RenderDeps, p: Presentation = {
   const list = statuses(state, ctx);
   const explicit = p.invalid?.step ?? p.open ?? null;
   const open = explicit ?? list.find((s) => s.status === 'todo')?.id ?? null;
-  const items: unknown[] = [];
+  const items: unknown[] = earlierGases(state.answers).map((g, i, all) => earlierView(g, i, all.length, ctx));
   // a skipped step is shown once the conversation has got to it: before the first unanswered step,
   // or among answers already given after it
   const frontier = list.findIndex((s) => s.status === 'todo');
   const lastDone = list.reduce((last, s, i) => (s.status === 'done' ? i : last), -1);
   list.forEach((s, i) => {
     const step = STEPS[s.id];
-    if (s.id === open) {
+    if (s.id === open && p.paste) {
+      items.push(p.paste);
+    } else if (s.id === open) {
       items.push(formView(s.id, ctx, state, p));
     } else if (s.status === 'done') {
       const ventilatedAnswered = state.done.includes('oxygen');
@@ -159,14 +192,41 @@ export function flowView(state: FlowState, deps: RenderDeps, p: Presentation = {
     }
   });
   const findings = open === null ? findingsOf(state.answers, deps.interpretOptions) : null;
-  const draft = findings ? { ...draftView(findings, state.format, deps, p.edited ?? null), autofocus: !p.keepFocus } : null;
-  const openTitle = open ? STEPS[open].title : null;
+  const draft = findings ? { ...draftView(findings, state.format, deps, p.edited ?? null), followUp: followUpView(state.answers, p), autofocus: !p.keepFocus && !p.followUp } : null;
+  const openTitle = p.paste ? p.paste.title : open ? STEPS[open].title : null;
   return {
     title: `${openTitle ?? (draft ? 'Draft note' : 'New case')} · Gasline`,
     announce: p.announce ?? '',
     state: stateFields(state),
     items,
     draft,
+  };
+}
+
+// ---------- earlier gases ----------
+
+const EARLIER_FIELDS: [string, string][] = [
+  ['gas.ph', 'pH'], ['gas.pco2', ''], ['gas.po2', ''], ['gas.hco3', 'HCO3'], ['gas.baseExcess', 'Base excess'], ['gas.lactate', 'Lactate'],
+  ['oxygen.fio2', 'FiO2'], ['oxygen.peep', 'PEEP'], ['ventilator.vt', 'VT'], ['ventilator.rr', 'RR'],
+];
+const EARLIER_UNITS: Record<string, string> = { 'oxygen.peep': 'cmH2O', 'ventilator.vt': 'mL', 'ventilator.rr': '/min' };
+
+/** An earlier gas in the log, read back as entered, with the way back while its follow-up is not yet entered. */
+function earlierView(g: Json, index: number, count: number, ctx: StepContext) {
+  const phrases: string[] = [];
+  for (const [path, name] of EARLIER_FIELDS) {
+    const [group, key] = path.split('.') as [string, string];
+    const value = (g[group] as Json | undefined)?.[key];
+    if (typeof value !== 'number') continue;
+    const range = group === 'gas' ? GAS_RANGES[key as keyof typeof GAS_RANGES] : null;
+    const label = path === 'gas.pco2' ? gasLabel(ctx.sample, 'CO2') : path === 'gas.po2' ? gasLabel(ctx.sample, 'O2') : name;
+    const unit = range ? (range.kind ? U.unitLabel(range.kind, ctx.units) : range.unit) : EARLIER_UNITS[path] ?? '';
+    phrases.push(`${label} ${value}${unit ? (unit === '/min' ? unit : ' ' + unit) : ''}`);
+  }
+  const when = [typeof g.takenAt === 'string' ? g.takenAt.replace('T', ' ') : null, g.label].filter((x): x is string => typeof x === 'string' && x.trim() !== '').join(', ');
+  return {
+    type: 'earlier', id: `earlier-${index + 1}`, title: `Earlier gas ${count > 1 ? `${index + 1} of ${count}` : ''}`.trim(), when: when || null, phrases,
+    canCancel: index === count - 1 && awaitingFollowUp(ctx.answers),
   };
 }
 

@@ -2,7 +2,7 @@
 // and how an answered step reads back as a message. Field names are the case's own paths
 // ("gas.ph"), so a schema error's path points straight at its field.
 // Labels and units come from the schema's ranges; no range is repeated here.
-import { CHEMISTRY_RANGES, GAS_RANGES, OXYGEN_RANGES, PATIENT_RANGES, VENTILATOR_RANGES, resolveUnits, type ParsedCase, type Range } from '../calc/schema.ts';
+import { CHEMISTRY_RANGES, CONTEXT_RANGES, GAS_RANGES, OXYGEN_RANGES, PATIENT_RANGES, VENTILATOR_RANGES, resolveUnits, type ParsedCase, type Range } from '../calc/schema.ts';
 import { units as U, type FieldError } from '../calc/index.ts';
 
 export type Json = Record<string, unknown>;
@@ -114,10 +114,14 @@ const num = (name: string, range: Range, ctx: StepContext, extra: Partial<Extrac
 /** Laboratories reporting kPa mostly report SI units elsewhere too; the clinician sees and can change the choice. */
 const siFirst = (ctx: StepContext, si: string, conventional: string) => (kpa(ctx) ? si : conventional);
 
-const gasLabel = (sample: StepContext['sample'], gas: 'CO2' | 'O2') =>
+export const gasLabel = (sample: StepContext['sample'], gas: 'CO2' | 'O2') =>
   sample === 'arterial' ? `Pa${gas}` : sample === 'venous' ? `Pv${gas}` : `Pc${gas}`;
 
 const arterial = (ctx: StepContext) => ctx.sample === 'arterial';
+
+/** How many earlier gases the case holds (a follow-up gas has at least one). */
+const earlierCount = (ctx: StepContext) => (Array.isArray(ctx.answers.previous) ? ctx.answers.previous.length : 0);
+const followUpRemark = (ctx: StepContext, text: string) => (earlierCount(ctx) ? [text] : []);
 
 // ---------- the steps ----------
 
@@ -163,11 +167,13 @@ const gas: StepDef = {
         unit: '',
         unitChoice: { name: 'units.hb', label: 'Hb unit', options: [{ value: 'g/dL', label: 'g/dL' }, { value: 'g/L', label: 'g/L' }], fallback: siFirst(ctx, 'g/L', 'g/dL') },
       }),
+      num('context.temperatureC', CONTEXT_RANGES.temperatureC, ctx, { label: 'Patient temperature' }),
     );
     return [{ fields: main }, { legend: 'If you have them', fields: optional }];
   },
   skipReason: () => null,
   remarks: (ctx) => [
+    ...followUpRemark(ctx, `A follow-up gas: enter it in ${ctx.units.pressure}, like the earlier one. Chemistry, patient and context are kept from before: change them if they have changed.`),
     `Two of pH, ${gasLabel(ctx.sample, 'CO2')} and HCO3 are enough: the third is worked out.`,
     ...(arterial(ctx) ? [] : [`No ${gasLabel(ctx.sample, 'O2')} or saturation asked: the PO2 of a ${ctx.sample} sample does not show arterial oxygenation.`]),
   ],
@@ -197,6 +203,10 @@ const chemistry: StepDef = {
         unitChoice: { name: 'units.urea', label: 'Urea unit', options: [{ value: 'urea-mmol/L', label: 'urea mmol/L' }, { value: 'bun-mg/dL', label: 'BUN mg/dL' }], fallback: siFirst(ctx, 'urea-mmol/L', 'bun-mg/dL') },
       }),
       num('chemistry.osmolality', CHEMISTRY_RANGES.osmolality, ctx, { label: 'Measured osmolality' }),
+      num('chemistry.creatinine', CHEMISTRY_RANGES.creatinine, ctx, {
+        unit: '',
+        unitChoice: { name: 'units.creatinine', label: 'Creatinine unit', options: [{ value: 'umol/L', label: 'µmol/L' }, { value: 'mg/dL', label: 'mg/dL' }], fallback: siFirst(ctx, 'umol/L', 'mg/dL') },
+      }),
     ],
   }],
   skipReason: () => null,
@@ -247,11 +257,13 @@ const oxygen: StepDef = {
         options: [{ value: 'yes', label: 'Yes', json: true }, { value: 'no', label: 'No', json: false }],
       },
     );
-    return [{ fields }];
+    // SpO2 with FiO2 gives the SpO2/FiO2 ratio; after the ventilator question, so that the first three stay in reach
+    return arterial(ctx) ? [{ fields }, { legend: 'If you have it', fields: [num('oxygen.spo2', OXYGEN_RANGES.spo2, ctx)] }] : [{ fields }];
   },
   skipReason: () => null,
-  remarks: (ctx) => arterial(ctx) ? [] : [
-    `No FiO2 asked: oxygenation (A-a gradient, P/F ratio) is not assessed from a ${ctx.sample} sample.`,
+  remarks: (ctx) => [
+    ...followUpRemark(ctx, 'Give the settings when this gas was taken; the earlier gas keeps its own.'),
+    ...(arterial(ctx) ? [] : [`No FiO2 asked: oxygenation (A-a gradient, P/F ratio) is not assessed from a ${ctx.sample} sample.`]),
   ],
   finish: (answers, form) => {
     const v = form.ventilated;
@@ -286,7 +298,7 @@ const ventilator: StepDef = {
     },
   ],
   skipReason: (ctx) => (ctx.answers.ventilator && typeof ctx.answers.ventilator === 'object' ? null : 'No ventilator questions: not on a ventilator.'),
-  remarks: () => [],
+  remarks: (ctx) => followUpRemark(ctx, 'Give the settings when this gas was taken: the note compares the change in PaCO2 with what a change of settings predicts.'),
   finish: (answers, _form, _ctx, errors) => {
     if (getPath(answers, 'ventilator.targetPh') !== undefined && getPath(answers, 'ventilator.targetPco2') !== undefined) {
       errors.push({ path: 'ventilator.targetPco2', message: 'Give a target pH or a target PaCO2, not both' });

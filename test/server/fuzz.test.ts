@@ -230,13 +230,8 @@ const anyForm = fc.record({
 }).map(({ state, fields, step, stray }) => ({ ...stray, ...state, step, ...fields }) as Record<string, string>);
 const formArb = fc.oneof(anyForm, answerArb);
 
-type Encoding = 'urlencoded' | 'multipart' | 'raw-urlencoded' | 'raw-multipart';
-/**
- * Well-formed multipart (a browser's encoding of names), its values as raw bytes.
- * KNOWN BUG, left out of the generator until server/page.ts is fixed (reported; not this file's to fix): a
- * multipart body that does not parse (no boundary, a wrong boundary, garbage) makes readForm's parseBody()
- * throw, and POST /step, /open, /preview, /paste and /followup answer 500 instead of 400.
- */
+type Encoding = 'urlencoded' | 'multipart' | 'raw-urlencoded' | 'raw-multipart' | 'broken-multipart';
+/** Well-formed multipart (a browser's encoding of names), its values as raw bytes. */
 function multipart(fields: Record<string, string>, cuts: [number, number[]][], boundary = 'fuzz0boundary'): Uint8Array<ArrayBuffer> {
   const enc = new TextEncoder();
   const parts: Uint8Array[] = [];
@@ -263,6 +258,12 @@ function formRequest(fields: Record<string, string>, encoding: Encoding, cuts: [
     const fd = new FormData();
     for (const [k, v] of Object.entries(fields)) fd.append(k, v);
     return { headers: {}, body: fd };
+  }
+  if (encoding === 'broken-multipart') {
+    // no boundary, a boundary the body does not use, or a body cut short: a 400, never a 500
+    const variants = ['multipart/form-data', 'multipart/form-data; boundary=other', 'multipart/form-data; boundary=fuzz0boundary'];
+    const body = multipart(fields, cuts);
+    return { headers: { 'content-type': variants[cuts.length % 3]! }, body: cuts.length % 3 === 2 ? body.slice(0, Math.max(1, body.length >> 1)) : body };
   }
   return { headers: { 'content-type': 'multipart/form-data; boundary=fuzz0boundary' }, body: multipart(fields, cuts) };
 }
@@ -456,7 +457,7 @@ describe('HTTP fuzz: never a 5xx, errors in the contract shape, no payload unesc
   it('POST /step, /open and /preview: forms (urlencoded, multipart, raw bytes) with payloads in every field and in the hidden case', { timeout: TIMEOUT }, async () => {
     const s = seen();
     await run(fc.asyncProperty(
-      fc.constantFrom('/step', '/open', '/preview'), formArb, fc.constantFrom<Encoding>('urlencoded', 'multipart', 'raw-urlencoded', 'raw-multipart'),
+      fc.constantFrom('/step', '/open', '/preview'), formArb, fc.constantFrom<Encoding>('urlencoded', 'multipart', 'raw-urlencoded', 'raw-multipart', 'broken-multipart'),
       corruption, htmx, origin, query,
       async (path, fields, encoding, cuts, hx, from, q) => {
         const req = formRequest(fields, encoding, cuts);

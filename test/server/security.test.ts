@@ -49,3 +49,12 @@ describe('origin check on form posts', () => {
     expect(res.status).toBe(200);
   });
 });
+
+describe('a form body that cannot be read', () => {
+  it.each(['/step', '/open', '/preview', '/paste', '/followup'])('%s answers 400, not 500 (found by the HTTP fuzz)', async (path) => {
+    for (const type of ['multipart/form-data', 'multipart/form-data; boundary=xyz']) {
+      const res = await app.request(path, { method: 'POST', headers: { 'content-type': type }, body: 'garbage' });
+      expect(res.status, `${path} ${type}`).toBe(400);
+    }
+  });
+});

@@ -56,6 +56,16 @@
     el.form.requestSubmit();
   });
 
+  // Ctrl+Enter (Cmd+Enter) in the paste box reads the text; Enter alone is a new line there.
+  document.addEventListener('keydown', function (event) {
+    if (event.key !== 'Enter' || !(event.ctrlKey || event.metaKey) || event.isComposing) return;
+    var el = event.target;
+    if (!(el instanceof HTMLTextAreaElement) || (el.id !== 'paste-text' && el.id !== 'paste-again') || !el.form) return;
+    event.preventDefault();
+    var read = el.form.querySelector('button[value="read"]');
+    el.form.requestSubmit(read instanceof HTMLButtonElement ? read : undefined);
+  });
+
   // The pressure unit shown beside PaCO2 and PaO2 follows the unit chosen above them.
   document.addEventListener('change', function (event) {
     var el = event.target;
