@@ -108,8 +108,7 @@ async function main() {
       { name: '/healthz', path: '/healthz', method: 'GET' },
       { name: 'POST /api/interpret', path: '/api/interpret', method: 'POST', headers: { 'content-type': 'application/json' }, body: json },
     ];
-    const draft = draftRoute(json);
-    if (draft) routes.push(draft);
+    routes.push(await draftRoute(base));
 
     // (b) one run against one server, 16 connections
     const figures = new Map<string, Awaited<ReturnType<typeof load>>>();
@@ -147,9 +146,29 @@ async function main() {
   console.log(`\n${rows.filter((r) => r.pass !== null).length - failed} targets met, ${failed} missed${SHORT ? ' (short run: not judged)' : ''}`);
 }
 
-/** The page's draft fragment, if the page exposes one (see views/ and server/page.ts). */
-function draftRoute(_json: string): Route | null {
-  return null;
+const unescapeHtml = (s: string) => s.replace(/&quot;/g, '"').replace(/&#39;/g, "'").replace(/&lt;/g, '<').replace(/&gt;/g, '>').replace(/&amp;/g, '&');
+const hidden = (html: string, name: string) => unescapeHtml(html.match(new RegExp(`<input type="hidden" name="${name}" value="([^"]*)"`))?.[1] ?? '');
+
+/**
+ * The page's draft fragment: the steps are walked once as a browser would (an invented ventilated patient), and
+ * the last answer, which returns the draft as an htmx fragment, is the request measured.
+ */
+async function draftRoute(base: string): Promise<Route> {
+  const form = { 'content-type': 'application/x-www-form-urlencoded', 'hx-request': 'true', 'sec-fetch-site': 'same-origin' };
+  let html = await (await fetch(base + '/')).text();
+  const answer = async (step: string, fields: Record<string, string>) => {
+    const body = new URLSearchParams({ case: hidden(html, 'case'), done: hidden(html, 'done'), format: hidden(html, 'format'), step, action: 'next', ...fields });
+    return { body: body.toString(), html: await (await fetch(base + '/step', { method: 'POST', headers: form, body })).text() };
+  };
+  html = (await answer('sample', { sample: 'arterial' })).html;
+  html = (await answer('gas', { 'units.pressure': 'mmHg', 'gas.ph': '7.24', 'gas.pco2': '52', 'gas.po2': '68', 'gas.hco3': '21.8', 'gas.lactate': '3.1', 'units.hb': 'g/dL' })).html;
+  html = (await answer('chemistry', { 'chemistry.na': '136', 'chemistry.k': '4.9', 'chemistry.cl': '99', 'chemistry.albumin': '2.6', 'units.albumin': 'g/dL', 'units.glucose': 'mg/dL', 'units.urea': 'bun-mg/dL' })).html;
+  if (html.includes('id="step-timing"') && html.includes('entry--open" id="step-timing"')) html = (await answer('timing', { 'context.timing': 'unknown' })).html;
+  html = (await answer('oxygen', { 'oxygen.fio2': '0.55', 'oxygen.peep': '10', ventilated: 'yes' })).html;
+  html = (await answer('ventilator', { 'ventilator.vt': '520', 'ventilator.rr': '18', 'ventilator.pplat': '27', 'patient.heightCm': '176', 'patient.sex': 'male', 'ventilator.targetPh': '7.32' })).html;
+  const last = await answer('patient', { 'patient.ageYears': '71' });
+  if (!last.html.includes('Draft note')) throw new Error('the walk through the steps did not reach the draft: check the field names in bench/run.ts');
+  return { name: 'POST /step (draft fragment)', path: '/step', method: 'POST', headers: form, body: last.body };
 }
 
 async function pageWeight(base: string): Promise<{ bytes: number; gzip: number } | null> {
