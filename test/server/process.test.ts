@@ -90,14 +90,25 @@ describe('no patient data at rest or in logs', () => {
     expect(bad.status).toBe(422);
     const broken = await fetch(r.base + '/api/interpret', { method: 'POST', headers: { 'content-type': 'application/json' }, body: `{"gas":{"ph":${marker.ph},` });
     expect(broken.status).toBe(400);
+    // the page: a step answered with the same values, and a pasted printout
+    const step = await fetch(r.base + '/step', {
+      method: 'POST', headers: { 'content-type': 'application/x-www-form-urlencoded', 'hx-request': 'true' },
+      body: new URLSearchParams({ case: JSON.stringify({ sample: 'arterial' }), done: 'sample', format: 'text', step: 'gas', action: 'next', 'units.pressure': 'mmHg', 'gas.ph': String(marker.ph), 'gas.pco2': String(marker.pco2), 'gas.hco3': String(marker.hco3) }).toString(),
+    });
+    expect(step.status).toBeLessThan(500);
+    const paste = await fetch(r.base + '/paste', {
+      method: 'POST', headers: { 'content-type': 'application/x-www-form-urlencoded' },
+      body: new URLSearchParams({ paste: `pH ${marker.ph}\npCO2 ${marker.pco2} mmHg\nHCO3 ${marker.hco3} mmol/L\nNa ${marker.na} mmol/L\n${marker.label}` }).toString(),
+    });
+    expect(paste.status).toBeLessThan(500);
     await stop(r);
 
     const output = r.out() + r.err();
     for (const value of ['7.137', '51.37', '16.913', '137.77', '9.137', marker.label]) expect(output).not.toContain(value);
     // each request line is method, path, status, time
     const lines = output.split('\n').filter((l) => l.startsWith('POST'));
-    expect(lines).toHaveLength(3);
-    for (const line of lines) expect(line).toMatch(/^POST \/api\/interpret \d{3} \d+\.\dms$/);
+    expect(lines).toHaveLength(5);
+    for (const line of lines) expect(line).toMatch(/^POST \/(api\/interpret|step|paste) \d{3} \d+\.\dms$/);
 
     // nothing written to disk: no file in the project (outside node_modules) or the temp folder changed since
     // the server started holds any of the values
