@@ -6,23 +6,13 @@ import { describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app.ts';
 import { interpret } from '../../calc/index.ts';
 import { createNoteRenderer } from '../../templates/index.ts';
+import { caseOf, hidden, openId, openStep, stateOf, textareaOf, unescape } from './pageHtml.ts';
 
 const app = createApp();
 const renderer = createNoteRenderer();
 
 type Fields = Record<string, string>;
 
-const unescape = (s: string) => s.replace(/&quot;/g, '"').replace(/&#39;/g, "'").replace(/&lt;/g, '<').replace(/&gt;/g, '>').replace(/&amp;/g, '&');
-function hidden(html: string, name: string): string {
-  const m = html.match(new RegExp(`<input type="hidden" name="${name}" value="([^"]*)"`));
-  if (!m) throw new Error(`no hidden ${name} in the page`);
-  return unescape(m[1]!);
-}
-const stateOf = (html: string) => ({ case: hidden(html, 'case'), done: hidden(html, 'done'), format: hidden(html, 'format') });
-const caseOf = (html: string) => JSON.parse(hidden(html, 'case')) as Record<string, unknown>;
-const openId = (html: string) => html.match(/<li class="entry entry--open" id="step-([a-z]+)">/)?.[1] ?? null;
-const openStep = (html: string) => html.match(/<li class="entry entry--open" id="step-([a-z]+)">([\s\S]*?)<\/li>\s*(?=<li|<\/ol>)/)?.[0] ?? '';
-const textareaOf = (html: string, id: string) => unescape(html.match(new RegExp(`<textarea id="${id}"[^>]*>([\\s\\S]*?)</textarea>`))?.[1] ?? '');
 const announced = (html: string) => unescape(html.match(/<hx-partial hx-target="#announce" hx-swap="innerHTML">([\s\S]*?)<\/hx-partial>/)?.[1] ?? '');
 /** The rows of the "Values read" table as [result, read as, from]: tags and layout spacing removed, the source text as written. */
 function readRows(html: string): string[][] {

@@ -7,22 +7,14 @@ import { describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app.ts';
 import { interpret, parseCase } from '../../calc/index.ts';
 import { createNoteRenderer } from '../../templates/index.ts';
+import { caseOf, hidden, openId, openStep, stateOf, textareaOf, unescape, type State } from './pageHtml.ts';
 
 const app = createApp();
 const renderer = createNoteRenderer();
 
 type Fields = Record<string, string>;
-interface State { case: string; done: string; format: string }
 
-const unescape = (s: string) => s.replace(/&quot;/g, '"').replace(/&#39;/g, "'").replace(/&lt;/g, '<').replace(/&gt;/g, '>').replace(/&amp;/g, '&');
 
-function hidden(html: string, name: string): string {
-  const m = html.match(new RegExp(`<input type="hidden" name="${name}" value="([^"]*)"`));
-  if (!m) throw new Error(`no hidden ${name} in the page`);
-  return unescape(m[1]!);
-}
-const stateOf = (html: string): State => ({ case: hidden(html, 'case'), done: hidden(html, 'done'), format: hidden(html, 'format') });
-const caseOf = (html: string) => JSON.parse(stateOf(html).case) as Record<string, unknown>;
 
 async function post(path: string, fields: Fields, htmx = true) {
   const res = await app.request(path, {
@@ -37,13 +29,6 @@ async function post(path: string, fields: Fields, htmx = true) {
 const answer = (html: string, step: string, fields: Fields, htmx = true) =>
   post('/step', { ...stateOf(html), step, action: 'next', ...fields }, htmx);
 
-/** The open step's section (the form being asked). */
-function openStep(html: string): string {
-  const m = html.match(/<li class="entry entry--open" id="step-([a-z]+)">([\s\S]*?)<\/li>\s*(?=<li|<\/ol>)/);
-  return m ? m[0] : '';
-}
-const openId = (html: string) => html.match(/<li class="entry entry--open" id="step-([a-z]+)">/)?.[1] ?? null;
-const textareaOf = (html: string, id: string) => unescape(html.match(new RegExp(`<textarea id="${id}"[^>]*>([\\s\\S]*?)</textarea>`))?.[1] ?? '');
 const fieldError = (html: string, id: string) => unescape(html.match(new RegExp(`<p class="error" id="${id}-error"><span class="visually-hidden">Error: </span>([^<]*)</p>`))?.[1] ?? '');
 
 const start = async () => (await app.request('/')).text();

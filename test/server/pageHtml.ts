@@ -1,0 +1,17 @@
+// Reading the page's HTML in tests: the hidden state, the open step, a text area.
+
+export const unescape = (s: string) => s.replace(/&quot;/g, '"').replace(/&#39;/g, "'").replace(/&lt;/g, '<').replace(/&gt;/g, '>').replace(/&amp;/g, '&');
+
+export function hidden(html: string, name: string): string {
+  const m = html.match(new RegExp(`<input type="hidden" name="${name}" value="([^"]*)"`));
+  if (!m) throw new Error(`no hidden ${name} in the page`);
+  return unescape(m[1]!);
+}
+
+export type State = { case: string; done: string; format: string };
+export const stateOf = (html: string): State => ({ case: hidden(html, 'case'), done: hidden(html, 'done'), format: hidden(html, 'format') });
+export const caseOf = (html: string) => JSON.parse(hidden(html, 'case')) as Record<string, unknown>;
+export const openId = (html: string) => html.match(/<li class="entry entry--open" id="step-([a-z]+)">/)?.[1] ?? null;
+/** The open step's section (the form being asked). */
+export const openStep = (html: string) => html.match(/<li class="entry entry--open" id="step-([a-z]+)">([\s\S]*?)<\/li>\s*(?=<li|<\/ol>)/)?.[0] ?? '';
+export const textareaOf = (html: string, id: string) => unescape(html.match(new RegExp(`<textarea id="${id}"[^>]*>([\\s\\S]*?)</textarea>`))?.[1] ?? '');
