@@ -5,26 +5,12 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { apiNote, browserGate, focusedId, openSession, startHarness, waitOpen, type Harness, type Session } from './harness.ts';
+import { PRINTOUT } from '../server/fixtures.ts';
 
 const num = (page: Page, label: string) => page.getByRole('textbox', { name: new RegExp(`^${label.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}( |$)`) });
 
 const run = browserGate('test/e2e/paste.test.ts');
 
-// An invented 52-year-old after a prolonged seizure (the same printout as the fragment tests use).
-const PRINTOUT = `POINT-OF-CARE BLOOD GAS        Ward 7B
-Sample: ARTERIAL
-pH          7.26
-pCO2        29    mmHg
-pO2         84    mmHg
-HCO3-       13.6  mmol/L
-Std HCO3    15.2  mmol/L
-BE(B)       -12.4 mmol/L
-Lac         7.8   mmol/L
-Na+         141   mmol/L
-K+          4.6   mmol/L
-Cl-         103   mmol/L
-FiO2        21 %
-Operator 117`;
 
 const obs = (code: string, value: number, unit: string, at = '2026-03-02T04:10:00Z') => ({
   resourceType: 'Observation', status: 'final', code: { coding: [{ system: 'http://loinc.org', code }] }, effectiveDateTime: at,

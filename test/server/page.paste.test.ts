@@ -7,6 +7,7 @@ import { createApp } from '../../server/app.ts';
 import { interpret } from '../../calc/index.ts';
 import { createNoteRenderer } from '../../templates/index.ts';
 import { caseOf, hidden, openId, openStep, stateOf, textareaOf, unescape } from './pageHtml.ts';
+import { PRINTOUT } from './fixtures.ts';
 
 const app = createApp();
 const renderer = createNoteRenderer();
@@ -40,21 +41,6 @@ const confirm = (shown: string, paste: string, answers: Fields = {}) =>
   post('/paste', { ...stateOf(shown), paste, pasteRead: hidden(shown, 'pasteRead'), action: 'confirm', ...answers });
 const answer = (html: string, step: string, fields: Fields) => post('/step', { ...stateOf(html), step, action: 'next', ...fields });
 
-// An invented 52-year-old after a prolonged seizure: a raised-lactate metabolic acidosis on room air.
-const PRINTOUT = `POINT-OF-CARE BLOOD GAS        Ward 7B
-Sample: ARTERIAL
-pH          7.26
-pCO2        29    mmHg
-pO2         84    mmHg
-HCO3-       13.6  mmol/L
-Std HCO3    15.2  mmol/L
-BE(B)       -12.4 mmol/L
-Lac         7.8   mmol/L
-Na+         141   mmol/L
-K+          4.6   mmol/L
-Cl-         103   mmol/L
-FiO2        21 %
-Operator 117`;
 
 const PRINTOUT_CASE = {
   sample: 'arterial', units: { pressure: 'mmHg' },
