@@ -5,7 +5,6 @@ import { readFileSync } from 'node:fs';
 import { gzipSync } from 'node:zlib';
 import { createServer } from 'node:net';
 import autocannon from 'autocannon';
-import { interpret, interpretParsed, parseCase } from '../calc/index.ts';
 import { BENCH_CASE } from './case.ts';
 
 const SHORT = process.env.BENCH_SHORT === '1';
@@ -56,14 +55,16 @@ function rssMb(pid: number): number {
   return kb / 1024;
 }
 
-// (a) the calculation core on one core: the whole of interpret() (validation included), and the calculation
-// alone on a case already validated (what the API does after its validator)
-function benchCore() {
-  const parsed = parseCase(BENCH_CASE);
+// (a) the calculation core on one core, as npm start runs it (the compiled JavaScript in dist/): the whole of
+// interpret() with validation, and the calculation alone on a case already validated (what the API does after
+// its validator)
+async function benchCore() {
+  const core = await import(new URL('../dist/calc/index.js', import.meta.url).href) as typeof import('../calc/index.ts');
+  const parsed = core.parseCase(BENCH_CASE);
   if (!parsed.ok) throw new Error('the benchmark case is invalid');
   const runs: [string, () => unknown][] = [
-    ['(a) core interpret() incl. validation, /s', () => interpret(BENCH_CASE)],
-    ['(a) core on a validated case, /s', () => interpretParsed(parsed.value)],
+    ['(a) core interpret() incl. validation, /s', () => core.interpret(BENCH_CASE)],
+    ['(a) core on a validated case, /s', () => core.interpretParsed(parsed.value)],
   ];
   for (const [name, fn] of runs) {
     const warm = SHORT ? 2_000 : 50_000;
@@ -93,10 +94,10 @@ async function load(base: string, route: Route, connections: number, duration: n
 
 async function main() {
   console.log(`Gasline benchmark${SHORT ? ' (short smoke run: figures are not meaningful)' : ''}, node ${process.version}\n`);
-  benchCore();
-
   const port = await freePort();
   await compileOnce(port);
+  await benchCore();
+
   const started = performance.now();
   const server = await startServer(port);
   const startMs = performance.now() - started;
