@@ -28,19 +28,29 @@ const FLAG_MESSAGE_SOURCE = '{% import "flag.njk" as fl %}{{ fl.message(flag) }}
  * Whitespace inside a paragraph becomes single spaces; no space is left before punctuation, and a sentence
  * that a template tag ran into the next one gets its space back.
  */
-const SPACES = /\s+/g;
-const SPACE_BEFORE_PUNCTUATION = / ([,.;:)])/g;
-const SPACE_AFTER_BRACKET = /\( /g;
-const MISSING_SPACE = /([.;:])(?=[A-Z])/g;
+const UNICODE_SPACE = /\s/;
+const isSpace = (ch: number) => ch === 32 || (ch >= 9 && ch <= 13) || (ch > 127 && UNICODE_SPACE.test(String.fromCharCode(ch)));
+const isUpper = (ch: number) => ch >= 65 && ch <= 90;
+const isClosing = (ch: number) => ch === 44 || ch === 46 || ch === 59 || ch === 58 || ch === 41; // , . ; : )
+const isStop = (ch: number) => ch === 46 || ch === 59 || ch === 58; // . ; :
 
+/**
+ * One pass over the text: whitespace runs become one space, no space before , . ; : ) or after (, a space
+ * after . ; : when a capital follows directly, and no space at either end.
+ */
 export function paragraph(value: unknown): string {
-  // whitespace first collapses to single spaces, so the later patterns need only look for one
-  return String(value ?? '')
-    .replace(SPACES, ' ')
-    .replace(SPACE_BEFORE_PUNCTUATION, '$1')
-    .replace(SPACE_AFTER_BRACKET, '(')
-    .replace(MISSING_SPACE, '$1 ')
-    .trim();
+  const text = String(value ?? '');
+  let out = '';
+  let pendingSpace = false;
+  for (let i = 0; i < text.length; i++) {
+    const ch = text.charCodeAt(i);
+    if (isSpace(ch)) { pendingSpace = out.length > 0; continue; }
+    if (pendingSpace && !isClosing(ch) && out.charCodeAt(out.length - 1) !== 40) out += ' ';
+    else if (!pendingSpace && isUpper(ch) && out.length > 0 && isStop(out.charCodeAt(out.length - 1))) out += ' ';
+    pendingSpace = false;
+    out += text[i];
+  }
+  return out;
 }
 
 /** First letter up, the rest untouched (unlike nunjucks' capitalize, which would spoil "PaCO2"). */
