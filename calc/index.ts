@@ -1,6 +1,6 @@
 // The calculation core's public surface.
 export { interpret, interpretParsed } from './interpret.ts';
-export type { Findings, Rejected, Derived, Metabolic, Oxygenation, Ventilation, Venous, Change, PreviousGas, Serial, InterpretOptions } from './interpret.ts';
+export type { Findings, Rejected, Derived, Metabolic, Oxygenation, Ventilation, Venous, Change, PreviousGas, Serial, InterpretOptions } from './findings.ts';
 export { caseSchema, caseShape, parseCase, rangeErrors, toFieldErrors, resolveUnits, rangeText } from './schema.ts';
 export type { CaseInput, ParsedCase, FieldError, Range } from './schema.ts';
 export type { CanonicalCase, Gas } from './canonical.ts';
