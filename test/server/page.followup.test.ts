@@ -7,23 +7,15 @@ import { createApp } from '../../server/app.ts';
 import { interpret } from '../../calc/index.ts';
 import { MAX_PREVIOUS_GASES } from '../../calc/schema.ts';
 import { createNoteRenderer } from '../../templates/index.ts';
-import { caseOf, hidden, openId, openStep, stateOf, textareaOf, unescape } from './pageHtml.ts';
+import { caseOf, hidden, openId, openStep, stateOf, textareaOf, unescape, poster, type Fields } from './pageHtml.ts';
 
 const app = createApp();
 const renderer = createNoteRenderer();
 
-type Fields = Record<string, string>;
 
 const svgOf = (html: string) => html.match(/<svg[\s\S]*?<\/svg>/)?.[0] ?? '';
 
-async function post(path: string, fields: Fields, htmx = true) {
-  const res = await app.request(path, {
-    method: 'POST',
-    headers: { 'content-type': 'application/x-www-form-urlencoded', ...(htmx ? { 'hx-request': 'true' } : {}) },
-    body: new URLSearchParams(fields).toString(),
-  });
-  return { status: res.status, html: await res.text() };
-}
+const post = poster(app);
 const answer = (html: string, step: string, fields: Fields) => post('/step', { ...stateOf(html), step, action: 'next', ...fields });
 const followUp = (html: string, when: string) => post('/followup', { ...stateOf(html), when });
 

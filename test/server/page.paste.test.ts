@@ -6,13 +6,12 @@ import { describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app.ts';
 import { interpret } from '../../calc/index.ts';
 import { createNoteRenderer } from '../../templates/index.ts';
-import { caseOf, hidden, openId, openStep, stateOf, textareaOf, unescape } from './pageHtml.ts';
+import { caseOf, hidden, openId, openStep, stateOf, textareaOf, unescape, poster, type Fields } from './pageHtml.ts';
 import { PRINTOUT } from './fixtures.ts';
 
 const app = createApp();
 const renderer = createNoteRenderer();
 
-type Fields = Record<string, string>;
 
 const announced = (html: string) => unescape(html.match(/<hx-partial hx-target="#announce" hx-swap="innerHTML">([\s\S]*?)<\/hx-partial>/)?.[1] ?? '');
 /** The rows of the "Values read" table as [result, read as, from]: tags and layout spacing removed, the source text as written. */
@@ -26,14 +25,7 @@ function readRows(html: string): string[][] {
     }));
 }
 
-async function post(path: string, fields: Fields, htmx = true) {
-  const res = await app.request(path, {
-    method: 'POST',
-    headers: { 'content-type': 'application/x-www-form-urlencoded', ...(htmx ? { 'hx-request': 'true' } : {}) },
-    body: new URLSearchParams(fields).toString(),
-  });
-  return { status: res.status, html: await res.text() };
-}
+const post = poster(app);
 const EMPTY = { case: '{}', done: '', format: 'text' };
 const read = (paste: string, state: Fields = EMPTY, htmx = true) => post('/paste', { ...state, paste, action: 'read' }, htmx);
 /** Confirm what the page showed: the text and the fingerprint it carried, with the answers given. */

@@ -7,23 +7,15 @@ import { describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app.ts';
 import { interpret, parseCase } from '../../calc/index.ts';
 import { createNoteRenderer } from '../../templates/index.ts';
-import { caseOf, hidden, openId, openStep, stateOf, textareaOf, unescape, type State } from './pageHtml.ts';
+import { caseOf, hidden, openId, openStep, stateOf, textareaOf, unescape, type State, poster, type Fields } from './pageHtml.ts';
 
 const app = createApp();
 const renderer = createNoteRenderer();
 
-type Fields = Record<string, string>;
 
 
 
-async function post(path: string, fields: Fields, htmx = true) {
-  const res = await app.request(path, {
-    method: 'POST',
-    headers: { 'content-type': 'application/x-www-form-urlencoded', ...(htmx ? { 'hx-request': 'true' } : {}) },
-    body: new URLSearchParams(fields).toString(),
-  });
-  return { status: res.status, html: await res.text(), headers: res.headers };
-}
+const post = poster(app);
 
 /** Answer the open step of a page, carrying its state as the browser would. */
 const answer = (html: string, step: string, fields: Fields, htmx = true) =>
