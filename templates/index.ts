@@ -62,7 +62,7 @@ export function sentenceCase(value: unknown): string {
 /** Trailing spaces go, runs of blank lines shrink to one. */
 function tidy(text: string): string {
   return text
-    .split('\n').map((l) => l.replace(/\s+$/, '')).join('\n')
+    .split('\n').map((l) => l.trimEnd()).join('\n')
     .replace(/\n{3,}/g, '\n\n')
     .trim();
 }
@@ -99,6 +99,8 @@ export function createNoteRenderer(options: { templateDir?: string | null } = {}
   const loader = new nunjucks.FileSystemLoader(searchPaths, { noCache: false, watch: false });
   const env = new nunjucks.Environment(loader, { autoescape: false, throwOnUndefined: true, trimBlocks: true, lstripBlocks: true });
   env.addFilter('para', paragraph);
+  // the built-in trim runs a regular expression over the whole text; the native trim does the same job
+  env.addFilter('trim', (value: unknown) => String(value ?? '').trim());
   env.addFilter('sentence', sentenceCase);
   env.addFilter('known', (items: unknown) => (Array.isArray(items) ? items.filter((x) => x !== null && x !== undefined && String(x).trim() !== '') : []));
   env.addFilter('knownPairs', (pairs: unknown) => (Array.isArray(pairs)
