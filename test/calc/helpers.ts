@@ -47,7 +47,11 @@ export const disorderList = (f: Findings): [string, string | null][] => f.disord
 export function numbersIn(value: unknown, path = '', out: { path: string; value: number }[] = []): { path: string; value: number }[] {
   if (typeof value === 'number') out.push({ path, value });
   else if (Array.isArray(value)) value.forEach((v, i) => numbersIn(v, `${path}[${i}]`, out));
-  else if (value && typeof value === 'object') for (const [k, v] of Object.entries(value)) numbersIn(v, path ? `${path}.${k}` : k, out);
+  else if (value && typeof value === 'object') {
+    // a reading keeps its explanations behind a getter; its toJSON() is what goes over the wire, explanations included
+    const plain = typeof (value as { toJSON?: unknown }).toJSON === 'function' ? (value as { toJSON: () => unknown }).toJSON() : value;
+    for (const [k, v] of Object.entries(plain as object)) numbersIn(v, path ? `${path}.${k}` : k, out);
+  }
   return out;
 }
 
