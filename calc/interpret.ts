@@ -55,11 +55,11 @@ function computedGasErrors(c: CanonicalCase): FieldError[] {
   return errors;
 }
 
-function emptyDerived(hPlus: number, gas: Gas): Derived {
+function emptyDerived(hPlus: number, sbe: number, gas: Gas): Derived {
   return {
     hPlus, hco3Henderson: hendersonBicarbonate(hPlus, gas.pco2), phHendersonHasselbalch: hendersonHasselbalchPh(gas.pco2, gas.hco3),
     anionGap: null, anionGapCorrected: null, deltaRatio: null, expectedPco2: null, expectedHco3: null,
-    standardBaseExcess: standardBaseExcess(gas.ph, gas.hco3),
+    standardBaseExcess: sbe,
     sodiumChlorideEffect: null, albuminEffect: null, unmeasuredIonEffect: null,
     apparentSid: null, effectiveSid: null, strongIonGap: null,
     calculatedOsmolality: null, osmolarGap: null, urineAnionGap: null,
@@ -89,16 +89,16 @@ function readCase(c: CanonicalCase): Findings {
   const g = c.gas;
   const s = c.settings;
   const hPlus = hydrogenIon(g.ph);
-  const derived = emptyDerived(hPlus, g);
   const sbe = standardBaseExcess(g.ph, g.hco3);
+  const derived = emptyDerived(hPlus, sbe, g);
   const flags: Flag[] = [];
   const explain: Explainers = {};
   const P = 'mmHg', M = 'mmol/L';
   const gasInputs = () => [input('pH', g.ph, ''), input('PaCO2', g.pco2, P), input('HCO3', g.hco3, M)];
 
   explain.hPlus = () => explanation('hPlus', '[H+]', round(hPlus, 1), 'nmol/L', '[H+] = 10^(9 - pH)', [input('pH', g.ph, '')], 'hydrogenIon');
-  explain.hco3Henderson = () => explanation('hco3Henderson', 'HCO3 from the Henderson equation', round(hendersonBicarbonate(hPlus, g.pco2), 1), M, 'HCO3 = 24 x PaCO2 / [H+]', [input('PaCO2', g.pco2, P), input('[H+]', round(hPlus, 1), 'nmol/L')], 'henderson');
-  explain.phHendersonHasselbalch = () => explanation('phHendersonHasselbalch', 'pH from Henderson-Hasselbalch', round(hendersonHasselbalchPh(g.pco2, g.hco3), 2), '', 'pH = 6.1 + log10(HCO3 / (0.0307 x PaCO2))', [input('HCO3', g.hco3, M), input('PaCO2', g.pco2, P)], 'hendersonHasselbalch');
+  explain.hco3Henderson = () => explanation('hco3Henderson', 'HCO3 from the Henderson equation', round(derived.hco3Henderson!, 1), M, 'HCO3 = 24 x PaCO2 / [H+]', [input('PaCO2', g.pco2, P), input('[H+]', round(hPlus, 1), 'nmol/L')], 'henderson');
+  explain.phHendersonHasselbalch = () => explanation('phHendersonHasselbalch', 'pH from Henderson-Hasselbalch', round(derived.phHendersonHasselbalch!, 2), '', 'pH = 6.1 + log10(HCO3 / (0.0307 x PaCO2))', [input('HCO3', g.hco3, M), input('PaCO2', g.pco2, P)], 'hendersonHasselbalch');
   explain.standardBaseExcess = () => explanation('standardBaseExcess', 'Standard base excess', round(sbe, 1), M, 'SBE = 0.93 x (HCO3 - 24.4 + 14.8 x (pH - 7.40))', [input('HCO3', g.hco3, M), input('pH', g.ph, '')], 'clsiC46');
 
   if (g.computed) flags.push(flag('gas_value_computed', 'info', { field: g.computed, value: round(g[g.computed], g.computed === 'ph' ? 2 : 1) }));
