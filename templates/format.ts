@@ -16,13 +16,13 @@ export function numberText(value: Maybe, decimals: number, fixed = false): Text 
   const f = 10 ** decimals;
   let rounded = Math.round(value * f) / f;
   if (Object.is(rounded, -0) || rounded === 0) rounded = 0;
-  const text = rounded.toFixed(decimals);
-  if (fixed || decimals === 0) return text;
-  return text.replace(/\.?0+$/, '');
+  if (fixed) return rounded.toFixed(decimals);
+  // a value rounded to a few places prints as its shortest decimal, which is toFixed without trailing zeros
+  return String(rounded);
 }
 
 // "16/min" and "93%" take no space; every other unit does ("48 mmHg")
-const withUnit = (text: Text, unit: string): Text => (text === null ? null : !unit ? text : /^[/%]/.test(unit) ? `${text}${unit}` : `${text} ${unit}`);
+const withUnit = (text: Text, unit: string): Text => (text === null ? null : !unit ? text : unit[0] === '/' || unit[0] === '%' ? `${text}${unit}` : `${text} ${unit}`);
 
 /** Every number-to-text rule of the note, bound to the clinician's units. */
 export interface Formatter {

@@ -8,10 +8,13 @@ import type { Findings, Flag } from '../calc/index.ts';
 import { formatter } from './format.ts';
 import { flagView } from './flagView.ts';
 import { buildView, type NoteFormat } from './view.ts';
+import { createCompiledTemplates, Unsupported } from './compile.ts';
 
 export interface Note { line: string; text: string; handover: string; format: 'text' | 'markdown' }
 
 export interface NoteRenderer {
+  /** 'compiled': the templates run as compiled functions (compile.ts); 'nunjucks': nunjucks' own runtime */
+  readonly engine: 'compiled' | 'nunjucks';
   render(findings: Findings, options?: { format?: 'text' | 'markdown' }): Note;
   /** one sentence per flag, used for the API's flags[].message */
   flagMessage(flag: Flag, findings: Findings): string;
@@ -26,29 +29,51 @@ const FLAG_MESSAGE_SOURCE = '{% import "flag.njk" as fl %}{{ fl.message(flag) }}
 
 /**
  * Whitespace inside a paragraph becomes single spaces; no space is left before punctuation, and a sentence
- * that a template tag ran into the next one gets its space back.
+ * that a template tag ran into the next one gets its space back. Character classes for the rules below:
  */
+const OTHER = 0, SPACE = 1, UPPER = 2, STOP = 3, CLOSING = 4, OPENING = 5; // STOP (. ; :) also closes
+const CLASS = new Uint8Array(128);
+for (const c of [9, 10, 11, 12, 13, 32]) CLASS[c] = SPACE;
+for (let c = 65; c <= 90; c++) CLASS[c] = UPPER;
+for (const c of [46, 59, 58]) CLASS[c] = STOP;
+for (const c of [44, 41]) CLASS[c] = CLOSING;
+CLASS[40] = OPENING;
 const UNICODE_SPACE = /\s/;
-const isSpace = (ch: number) => ch === 32 || (ch >= 9 && ch <= 13) || (ch > 127 && UNICODE_SPACE.test(String.fromCharCode(ch)));
-const isUpper = (ch: number) => ch >= 65 && ch <= 90;
-const isClosing = (ch: number) => ch === 44 || ch === 46 || ch === 59 || ch === 58 || ch === 41; // , . ; : )
-const isStop = (ch: number) => ch === 46 || ch === 59 || ch === 58; // . ; :
+const classOf = (ch: number) => (ch < 128 ? CLASS[ch]! : UNICODE_SPACE.test(String.fromCharCode(ch)) ? SPACE : OTHER);
 
 /**
  * One pass over the text: whitespace runs become one space, no space before , . ; : ) or after (, a space
- * after . ; : when a capital follows directly, and no space at either end.
+ * after . ; : when a capital follows directly, and no space at either end. Copies whole words at a time.
  */
 export function paragraph(value: unknown): string {
   const text = String(value ?? '');
+  const n = text.length;
   let out = '';
-  let pendingSpace = false;
-  for (let i = 0; i < text.length; i++) {
-    const ch = text.charCodeAt(i);
-    if (isSpace(ch)) { pendingSpace = out.length > 0; continue; }
-    if (pendingSpace && !isClosing(ch) && out.charCodeAt(out.length - 1) !== 40) out += ' ';
-    else if (!pendingSpace && isUpper(ch) && out.length > 0 && isStop(out.charCodeAt(out.length - 1))) out += ' ';
-    pendingSpace = false;
-    out += text[i];
+  let last = -1; // class of the last character written; -1 while nothing is
+  let i = 0;
+  while (i < n) {
+    let c = classOf(text.charCodeAt(i));
+    if (c === SPACE) {
+      let j = i + 1;
+      while (j < n && classOf(text.charCodeAt(j)) === SPACE) j++;
+      if (j >= n) break;
+      c = classOf(text.charCodeAt(j));
+      if (last !== -1 && c !== STOP && c !== CLOSING && last !== OPENING) out += ' ';
+      i = j;
+    } else if (c === UPPER && last === STOP) {
+      out += ' ';
+    }
+    // copy the word up to the next space, splitting it only where a capital follows . ; :
+    let start = i;
+    let prev = c;
+    for (i++; i < n; i++) {
+      c = classOf(text.charCodeAt(i));
+      if (c === SPACE) break;
+      if (c === UPPER && prev === STOP) { out += text.slice(start, i) + ' '; start = i; }
+      prev = c;
+    }
+    out += text.slice(start, i);
+    last = prev;
   }
   return out;
 }
@@ -93,7 +118,7 @@ function isFindings(x: unknown): x is Findings {
  * One nunjucks environment per renderer. Every template is read and compiled here, once; a render reads no file.
  * A template that prints a missing value throws (throwOnUndefined), so a gap in the data never reaches a note.
  */
-export function createNoteRenderer(options: { templateDir?: string | null } = {}): NoteRenderer {
+export function createNoteRenderer(options: { templateDir?: string | null; engine?: 'compiled' | 'nunjucks' } = {}): NoteRenderer {
   const departmentDir = options.templateDir ? checkFolder(options.templateDir) : null;
   const searchPaths = departmentDir && departmentDir !== DEFAULT_TEMPLATE_DIR ? [departmentDir, DEFAULT_TEMPLATE_DIR] : [DEFAULT_TEMPLATE_DIR];
   const loader = new nunjucks.FileSystemLoader(searchPaths, { noCache: false, watch: false });
@@ -110,29 +135,68 @@ export function createNoteRenderer(options: { templateDir?: string | null } = {}
   // read and compile everything now, the department's files and the defaults alike
   const names = new Set<string>(searchPaths.flatMap((dir) => templateFiles(dir)));
   for (const name of names) env.getTemplate(name, true);
-  const line = env.getTemplate(ENTRY.line, true);
-  const note = env.getTemplate(ENTRY.note, true);
-  const handover = env.getTemplate(ENTRY.handover, true);
-  const flagMessageTemplate = new nunjucks.Template(FLAG_MESSAGE_SOURCE, env, 'flag-message', true);
+  const entries = compiledEntries(env, names, options.engine ?? 'compiled') ?? nunjucksEntries(env);
 
   return {
+    engine: entries.engine,
     render(findings, renderOptions = {}) {
       if (!isFindings(findings)) throw new TypeError('render() needs the findings of an accepted case (interpret() returned errors)');
       const format: NoteFormat = renderOptions.format ?? 'text';
       if (format !== 'text' && format !== 'markdown') throw new TypeError(`Unknown note format "${String(format)}": use "text" or "markdown"`);
       const v = buildView(findings, format);
-      const oneLine = paragraph(line.render({ v }));
+      const oneLine = paragraph(entries.line({ v }));
       return {
         line: oneLine,
-        text: tidy(note.render({ v, line: oneLine })),
-        handover: tidy(handover.render({ v })),
+        text: tidy(entries.note({ v, line: oneLine })),
+        handover: tidy(entries.handover({ v })),
         format,
       };
     },
     flagMessage(flag, findings) {
       if (!isFindings(findings)) throw new TypeError('flagMessage() needs the findings the flag came from');
       const view = flagView(flag, findings, formatter(findings.units));
-      return paragraph(flagMessageTemplate.render({ flag: view, v: { md: false } }));
+      return paragraph(entries.flagMessage({ flag: view, v: { md: false } }));
     },
   };
+}
+
+type Entry = (data: Record<string, unknown>) => string;
+interface Entries { engine: 'compiled' | 'nunjucks'; line: Entry; note: Entry; handover: Entry; flagMessage: Entry }
+
+/** nunjucks' own runtime: the reference the compiled templates are tested against, and the fallback. */
+function nunjucksEntries(env: nunjucks.Environment): Entries {
+  const line = env.getTemplate(ENTRY.line, true);
+  const note = env.getTemplate(ENTRY.note, true);
+  const handover = env.getTemplate(ENTRY.handover, true);
+  const flagMessage = new nunjucks.Template(FLAG_MESSAGE_SOURCE, env, 'flag-message', true);
+  return {
+    engine: 'nunjucks',
+    line: (d) => line.render(d),
+    note: (d) => note.render(d),
+    handover: (d) => handover.render(d),
+    flagMessage: (d) => flagMessage.render(d),
+  };
+}
+
+/**
+ * The same templates compiled to functions (compile.ts), every file up front so that nothing is compiled during
+ * a request. A department template using something the compiler does not handle keeps the whole renderer on nunjucks.
+ */
+function compiledEntries(env: nunjucks.Environment, names: Iterable<string>, engine: 'compiled' | 'nunjucks'): Entries | null {
+  if (engine === 'nunjucks') return null;
+  try {
+    const compiled = createCompiledTemplates(env);
+    for (const name of names) compiled.get(name);
+    const flagMessage = compiled.fromString('flag-message', FLAG_MESSAGE_SOURCE);
+    return {
+      engine: 'compiled',
+      line: (d) => compiled.render(ENTRY.line, d),
+      note: (d) => compiled.render(ENTRY.note, d),
+      handover: (d) => compiled.render(ENTRY.handover, d),
+      flagMessage: (d) => flagMessage.render(d),
+    };
+  } catch (error) {
+    if (error instanceof Unsupported) return null;
+    throw error;
+  }
 }

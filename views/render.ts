@@ -7,6 +7,7 @@ import sanitizeHtml from 'sanitize-html';
 import { units as U, type FieldError, type Findings, type InterpretOptions } from '../calc/index.ts';
 import { GAS_RANGES, MAX_PREVIOUS_GASES } from '../calc/schema.ts';
 import type { NoteRenderer } from '../templates/index.ts';
+import { createCompiledTemplates, Unsupported } from '../templates/compile.ts';
 import { STEPS, formValue, gasLabel, summary, type FieldDef, type FormValues, type Group, type Json, type StepContext, type StepId } from './steps.ts';
 import { awaitingFollowUp, contextFor, earlierGases, findingsOf, placeErrors, statuses, type FlowState, type Format } from './flow.ts';
 import { acidBaseMap } from './map.ts';
@@ -17,6 +18,26 @@ const VIEWS_DIR = fileURLToPath(new URL('.', import.meta.url));
 const env = new nunjucks.Environment(new nunjucks.FileSystemLoader(VIEWS_DIR), {
   autoescape: true, trimBlocks: true, lstripBlocks: true,
 });
+
+/**
+ * The page's templates compiled to functions (templates/compile.ts), all of them when the module loads; nunjucks
+ * itself renders them if the compiler cannot take one. The tests render with both and compare.
+ */
+const compiledViews = (() => {
+  try {
+    const views = createCompiledTemplates(env);
+    for (const name of ['page.njk', 'fragment.njk', 'preview.njk', 'problem.njk']) views.get(name);
+    return views;
+  } catch (error) {
+    if (error instanceof Unsupported) return null;
+    throw error;
+  }
+})();
+
+export type ViewEngine = 'compiled' | 'nunjucks';
+export const VIEW_ENGINE: ViewEngine = compiledViews ? 'compiled' : 'nunjucks';
+const render = (name: string, data: Record<string, unknown>, engine: ViewEngine) =>
+  (engine === 'compiled' && compiledViews ? compiledViews.render(name, data) : env.render(name, data));
 
 export interface RenderDeps { renderer: NoteRenderer; interpretOptions?: InterpretOptions }
 
@@ -236,8 +257,8 @@ export function stateFields(state: FlowState) {
 
 export type FlowView = ReturnType<typeof flowView>;
 
-export const renderPage = (view: FlowView): string => env.render('page.njk', { view });
-export const renderFragment = (view: FlowView): string => env.render('fragment.njk', { view });
-export const renderPreview = (html: string): string => env.render('preview.njk', { html });
-export const renderProblem = (message: string, fragment = false): string =>
-  env.render('problem.njk', { message, fragment, view: { title: 'Could not go on · Gasline' } });
+export const renderPage = (view: FlowView, engine = VIEW_ENGINE): string => render('page.njk', { view }, engine);
+export const renderFragment = (view: FlowView, engine = VIEW_ENGINE): string => render('fragment.njk', { view }, engine);
+export const renderPreview = (html: string, engine = VIEW_ENGINE): string => render('preview.njk', { html }, engine);
+export const renderProblem = (message: string, fragment = false, engine = VIEW_ENGINE): string =>
+  render('problem.njk', { message, fragment, view: { title: 'Could not go on · Gasline' } }, engine);
