@@ -1,6 +1,6 @@
 // The JSON API of interface-contract.md: POST /api/interpret and GET /healthz.
 import { Hono, type Context } from 'hono';
-import { bodyLimit } from 'hono/body-limit';
+import { bodyLimit } from './limits.ts';
 import { zValidator } from '@hono/zod-validator';
 import { caseSchema, interpret, interpretParsed, toFieldErrors, type Findings, type InterpretOptions } from '../calc/index.ts';
 import type { NoteRenderer } from '../templates/index.ts';

@@ -1,7 +1,7 @@
 // The step-by-step page. Every step is a plain form post; htmx requests get the fragment to swap,
 // other requests the full page. The case travels in each form and is checked by the schema each time.
 import { Hono, type Context } from 'hono';
-import { bodyLimit } from 'hono/body-limit';
+import { bodyLimit } from './limits.ts';
 import type { InterpretOptions } from '../calc/index.ts';
 import type { NoteRenderer } from '../templates/index.ts';
 import { BODY_LIMIT_BYTES } from './errors.ts';
