@@ -125,10 +125,12 @@ async function main() {
     }
     // for information: the same HTTP stack with no work at all, a POST that only reads the case's JSON, on a
     // bare Hono server of its own. It shows how far the ratio can go on this machine before any reading is done.
-    const floor = await floorRoute(json);
+    const answerBytes = Buffer.byteLength(await (await fetch(base + routes[1]!.path, { method: 'POST', headers: routes[1]!.headers, body: json })).text());
+    const floor = await floorRoute(json, answerBytes);
     if (floor) {
-      record('(b) reference: POST that only reads the JSON, req/s', `${Math.round(floor.post.rps).toLocaleString('en')} (bare GET ${Math.round(floor.get.rps).toLocaleString('en')})`, '(information)', null);
-      record('(b) reference: its ratio to the bare GET', (floor.post.rps / floor.get.rps).toFixed(2), '(information)', null);
+      record('(b) reference: bare Hono GET, req/s', Math.round(floor.get.rps).toLocaleString('en'), '(information)', null);
+      record('(b) reference: POST reading the JSON, ratio', `${(floor.post.rps / floor.get.rps).toFixed(2)} (${Math.round(floor.post.rps).toLocaleString('en')}/s)`, '(information)', null);
+      record(`(b) reference: same, fixed ${(answerBytes / 1024).toFixed(0)} KB answer, ratio`, `${(floor.sized.rps / floor.get.rps).toFixed(2)} (${Math.round(floor.sized.rps).toLocaleString('en')}/s)`, '(information)', null);
     }
 
     // (c) soak: 60 s at 32 connections on the interpret route, after a warm-up at the same load (so that the
@@ -153,8 +155,11 @@ async function main() {
   console.log(`\n${rows.filter((r) => r.pass !== null).length - failed} targets met, ${failed} missed${SHORT ? ' (short run: not judged)' : ''}`);
 }
 
-/** A bare Hono server in a process of its own: GET /healthz, and POST /echo that reads the JSON and answers {ok:true}. */
-async function floorRoute(json: string) {
+/**
+ * A bare Hono server in a process of its own: GET /healthz; POST /echo, which reads the JSON and answers {ok:true};
+ * and POST /sized, which reads it and answers a fixed body as long as the interpret route's answer.
+ */
+async function floorRoute(json: string, answerBytes: number) {
   const port = await freePort();
   const source = `
     import { serve } from '@hono/node-server';
@@ -162,6 +167,8 @@ async function floorRoute(json: string) {
     const app = new Hono();
     app.get('/healthz', (c) => c.json({ ok: true }));
     app.post('/echo', async (c) => { await c.req.json(); return c.json({ ok: true }); });
+    const sized = JSON.stringify({ ok: true, padding: 'x'.repeat(Math.max(0, ${answerBytes} - 26)) });
+    app.post('/sized', async (c) => { await c.req.json(); return c.body(sized, 200, { 'content-type': 'application/json' }); });
     serve({ fetch: app.fetch, port: ${port}, hostname: '127.0.0.1' }, () => console.log('listening'));`;
   const child = spawn(process.execPath, [...NODE_FLAGS, '--input-type=module', '-e', source], { cwd: new URL('..', import.meta.url).pathname, stdio: ['ignore', 'pipe', 'inherit'] });
   try {
@@ -176,7 +183,10 @@ async function floorRoute(json: string) {
     const g = await load(base, get, 16, seconds(5, 1));
     await load(base, post, 16, 1);
     const p = await load(base, post, 16, seconds(5, 1));
-    return { get: g, post: p };
+    const sizedRoute: Route = { ...post, name: 'sized', path: '/sized' };
+    await load(base, sizedRoute, 16, 1);
+    const z = await load(base, sizedRoute, 16, seconds(5, 1));
+    return { get: g, post: p, sized: z };
   } catch {
     return null;
   } finally {

@@ -29,53 +29,53 @@ const FLAG_MESSAGE_SOURCE = '{% import "flag.njk" as fl %}{{ fl.message(flag) }}
 
 /**
  * Whitespace inside a paragraph becomes single spaces; no space is left before punctuation, and a sentence
- * that a template tag ran into the next one gets its space back. Character classes for the rules below:
+ * that a template tag ran into the next one gets its space back. Character classes for the rules below, for
+ * every UTF-16 code unit; SPACE is exactly what a regular expression's \s matches (the test checks all 65,536).
  */
-const OTHER = 0, SPACE = 1, UPPER = 2, STOP = 3, CLOSING = 4, OPENING = 5; // STOP (. ; :) also closes
-const CLASS = new Uint8Array(128);
-for (const c of [9, 10, 11, 12, 13, 32]) CLASS[c] = SPACE;
+const SPACE = 1, UPPER = 2, STOP = 3, CLOSING = 4, OPENING = 5; // STOP (. ; :) also closes
+export const WHITESPACE_CODES = [9, 10, 11, 12, 13, 32, 160, 5760, 8192, 8193, 8194, 8195, 8196, 8197, 8198, 8199, 8200, 8201, 8202, 8232, 8233, 8239, 8287, 12288, 65279];
+const CLASS = new Uint8Array(65536);
+for (const c of WHITESPACE_CODES) CLASS[c] = SPACE;
 for (let c = 65; c <= 90; c++) CLASS[c] = UPPER;
 for (const c of [46, 59, 58]) CLASS[c] = STOP;
 for (const c of [44, 41]) CLASS[c] = CLOSING;
 CLASS[40] = OPENING;
-const UNICODE_SPACE = /\s/;
-const classOf = (ch: number) => (ch < 128 ? CLASS[ch]! : UNICODE_SPACE.test(String.fromCharCode(ch)) ? SPACE : OTHER);
 
 /**
  * One pass over the text: whitespace runs become one space, no space before , . ; : ) or after (, a space
- * after . ; : when a capital follows directly, and no space at either end. Copies whole words at a time.
+ * after . ; : when a capital follows directly, and no space at either end. Stretches that need no change
+ * (words with single spaces between them) are copied whole; only the places that change break the copy.
  */
 export function paragraph(value: unknown): string {
   const text = String(value ?? '');
   const n = text.length;
   let out = '';
-  let last = -1; // class of the last character written; -1 while nothing is
+  let start = -1; // where the stretch being copied began; -1 while none is open
+  let last = -1; // class of the last character kept that is not a space; -1 while none is
+  let prev = -1; // class of the character just before this one in the output
   let i = 0;
   while (i < n) {
-    let c = classOf(text.charCodeAt(i));
-    if (c === SPACE) {
-      let j = i + 1;
-      while (j < n && classOf(text.charCodeAt(j)) === SPACE) j++;
-      if (j >= n) break;
-      c = classOf(text.charCodeAt(j));
-      if (last !== -1 && c !== STOP && c !== CLOSING && last !== OPENING) out += ' ';
-      i = j;
-    } else if (c === UPPER && last === STOP) {
-      out += ' ';
+    const c = CLASS[text.charCodeAt(i)]!;
+    if (c !== SPACE) {
+      if (start < 0) start = i;
+      else if (c === UPPER && prev === STOP) { out += text.slice(start, i) + ' '; start = i; }
+      prev = last = c;
+      i++;
+      continue;
     }
-    // copy the word up to the next space, splitting it only where a capital follows . ; :
-    let start = i;
-    let prev = c;
-    for (i++; i < n; i++) {
-      c = classOf(text.charCodeAt(i));
-      if (c === SPACE) break;
-      if (c === UPPER && prev === STOP) { out += text.slice(start, i) + ' '; start = i; }
-      prev = c;
-    }
-    out += text.slice(start, i);
-    last = prev;
+    let j = i + 1;
+    while (j < n && CLASS[text.charCodeAt(j)] === SPACE) j++;
+    if (j >= n) break; // trailing whitespace goes
+    const next = CLASS[text.charCodeAt(j)];
+    const keep = last !== -1 && next !== STOP && next !== CLOSING && last !== OPENING;
+    // one plain space that stays: the stretch goes on
+    if (keep && j === i + 1 && text.charCodeAt(i) === 32) { prev = SPACE; i = j; continue; }
+    if (start >= 0) out += text.slice(start, i);
+    if (keep) { out += ' '; prev = SPACE; }
+    start = j;
+    i = j;
   }
-  return out;
+  return start >= 0 ? out + text.slice(start, i) : out;
 }
 
 /** First letter up, the rest untouched (unlike nunjucks' capitalize, which would spoil "PaCO2"). */
