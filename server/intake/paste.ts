@@ -54,7 +54,7 @@ export interface Shorthand {
   sourceText: string;
 }
 
-export const MAX_PASTE_CHARS = 100_000;
+export const MAX_PASTE_CHARS = 50_000; // with the rest of the form, within the 64 KiB body limit
 
 // ---------- text preparation ----------
 

@@ -46,7 +46,7 @@ describe('the first step offers a paste', () => {
     const html = await (await app.request('/')).text();
     const step = openStep(html);
     expect(openId(html)).toBe('sample');
-    expect(step).toMatch(/<form class="paste-form" method="post" action="\/paste" hx-post="\/paste"/);
+    expect(step).toMatch(/<form class="paste-form" method="post" action="\/paste" enctype="multipart\/form-data" hx-post="\/paste"/);
     expect(step).toContain('<label class="field-label" for="paste-text">Or paste the results</label>');
     expect(step).toContain('shorthand such as 7.31/48/72/23, or FHIR JSON');
     expect(step).toMatch(/<textarea id="paste-text" name="paste"[^>]*aria-describedby="paste-text-hint"><\/textarea>/);
@@ -364,9 +364,23 @@ describe('text with no result in it', () => {
     const empty = await read('   ');
     expect(empty.status).toBe(422);
     expect(empty.html).toContain('The text is empty');
-    const long = await read(`pH 7.31\n${'x'.repeat(100_001)}`);
+    const long = await read(`pH 7.31\n${'x'.repeat(50_001)}`);
     expect(long.status).toBe(422);
-    expect(long.html).toMatch(/The text has 100009 characters, more than 100000/);
+    expect(long.html).toMatch(/The text has 50009 characters, more than 50000/);
+  });
+
+  it('the paste forms post multipart, so a FHIR bundle is not tripled by URL-encoding; such a post is read', async () => {
+    const first = await (await app.request('/')).text();
+    const forms = first.match(/<form class="paste-form"[^>]*>/g) ?? [];
+    expect(forms.length).toBe(1);
+    expect(forms[0]).toContain('enctype="multipart/form-data"');
+    const body = new FormData();
+    for (const [k, v] of Object.entries({ ...EMPTY, action: 'read', paste: 'pH 7.31\npCO2 48 mmHg\nHCO3 23.5 mmol/L' })) body.append(k, v);
+    const res = await app.request('/paste', { method: 'POST', body, headers: { 'hx-request': 'true' } });
+    expect(res.status).toBe(200);
+    const html = await res.text();
+    expect(html).toContain('class="paste-confirm"');
+    expect(html.match(/<form class="paste-confirm"[^>]*>/)?.[0]).toContain('enctype="multipart/form-data"');
   });
 
   it('a body over the paste limit is refused with a message, not a failure', async () => {
