@@ -372,3 +372,25 @@ describe('earlier gases and the sample conditions', () => {
     expect(codes(read({ gas: { ph: 7.40, pco2: 40, hco3: 24 }, context: { temperatureC: 37.5 } }))).not.toContain('temperature_not_37');
   });
 });
+
+describe('explanations report their inputs as a reader would write them', () => {
+  it('a kPa gas: PaCO2 7.6 kPa is shown as 57 mmHg (7.6 x 7.50062 = 57.0047; UCUM kPa to mm[Hg]), not with the conversion noise', () => {
+    const f = read({
+      units: { pressure: 'kPa', albumin: 'g/L', glucose: 'mmol/L', urea: 'urea-mmol/L' },
+      gas: { ph: 7.28, pco2: 7.6, hco3: 26.1 },
+      chemistry: { na: 139, cl: 101, albumin: 31, glucose: 7.3, urea: 9.4, osmolality: 300 },
+    });
+    const pco2 = f.explain.hco3Henderson?.inputs.find((i) => i.name === 'PaCO2');
+    expect(pco2?.value).toBe(57);
+    for (const e of Object.values(f.explain)) {
+      for (const i of e.inputs) {
+        // no input carries more decimals than its unit is read with (3 at most, for pH and fractions)
+        const decimals = (String(i.value).split('.')[1] ?? '').length;
+        expect(decimals, `${e.key} ${i.name} ${i.value}`).toBeLessThanOrEqual(3);
+        if (i.unit === 'mmHg') expect(decimals, `${e.key} ${i.name}`).toBeLessThanOrEqual(1);
+      }
+    }
+    // the arithmetic itself used the unrounded value: HCO3 = 24 x 57.0047 / [H+] 52.48 (Henderson)
+    expect(f.derived.hco3Henderson).toBe(26.1);
+  });
+});
