@@ -30,6 +30,7 @@ export function explanation(key: string, label: string, value: number, unit: str
 
 /** A value rounded for reporting (not for further arithmetic). */
 export function round(value: number, decimals: number): number {
-  const f = 10 ** decimals;
+  const f = POWERS_OF_TEN[decimals] ?? 10 ** decimals;
   return Math.round(value * f) / f;
 }
+const POWERS_OF_TEN = [1, 10, 100, 1000, 10000];

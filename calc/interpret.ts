@@ -214,7 +214,7 @@ const classifyPhOnly = (ph: number): PhStatus => (ph < NORMAL.ph.low ? 'acidaemi
 function explainCompensation(comp: Compensation | null, ref: ReferencePoint, explain: Explainers, gasInputs: () => ReturnType<typeof input>[]) {
   if (!comp) return;
   const mid = (b: Band) => round((b.low + b.high) / 2, 1);
-  const refInputs = [input('Reference PaCO2', round(ref.pco2, 1), 'mmHg'), input('Reference HCO3', round(ref.hco3, 1), 'mmol/L')];
+  const refInputs = () => [input('Reference PaCO2', round(ref.pco2, 1), 'mmHg'), input('Reference HCO3', round(ref.hco3, 1), 'mmol/L')];
   switch (comp.rule) {
     case 'winters':
       explain.expectedPco2 = () => explanation('expectedPco2', 'Expected PaCO2 (Winters)', mid(comp.expected), 'mmHg', 'PaCO2 = 1.5 x HCO3 + 8 (+/- 2)', gasInputs().slice(2), 'winters');
@@ -225,12 +225,12 @@ function explainCompensation(comp: Compensation | null, ref: ReferencePoint, exp
     case 'respiratory_acidosis':
       explain.expectedHco3 = () => explanation('expectedHco3', 'Expected HCO3 (respiratory acidosis)', mid(comp.expected), 'mmol/L',
         comp.timing === 'acute' ? 'HCO3 = ref HCO3 + 1 x (PaCO2 - ref PaCO2) / 10 (+/- 2)' : comp.timing === 'chronic' ? 'HCO3 = ref HCO3 + 3.5 x (PaCO2 - ref PaCO2) / 10 (+/- 2)' : 'from acute (1 per 10 mmHg) to chronic (3.5 per 10 mmHg), +/- 2',
-        [gasInputs()[1]!, ...refInputs], 'berend2014');
+        [gasInputs()[1]!, ...refInputs()], 'berend2014');
       break;
     case 'respiratory_alkalosis':
       explain.expectedHco3 = () => explanation('expectedHco3', 'Expected HCO3 (respiratory alkalosis)', mid(comp.expected), 'mmol/L',
         comp.timing === 'acute' ? 'HCO3 = ref HCO3 - 2 x (ref PaCO2 - PaCO2) / 10 (+/- 2)' : comp.timing === 'chronic' ? 'HCO3 = ref HCO3 - 4 to 5 x (ref PaCO2 - PaCO2) / 10 (+/- 2)' : 'from acute (2 per 10 mmHg) to chronic (4-5 per 10 mmHg), +/- 2',
-        [gasInputs()[1]!, ...refInputs], 'berend2014');
+        [gasInputs()[1]!, ...refInputs()], 'berend2014');
       break;
   }
 }

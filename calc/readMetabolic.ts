@@ -23,9 +23,12 @@ export function anionGapPart(c: CanonicalCase, d: Derived, m: Metabolic, explain
   m.anionGapIncludesK = withK;
   const gap = anionGap(ch.na, ch.cl, g.hco3, withK ? ch.k : null);
   d.anionGap = gap;
-  const inputs = [input('Na', ch.na, 'mmol/L'), input('Cl', ch.cl, 'mmol/L'), input('HCO3', g.hco3, 'mmol/L')];
-  if (withK && has(ch.k)) inputs.splice(1, 0, input('K', ch.k, 'mmol/L'));
-  explain.anionGap = () => explanation('anionGap', 'Anion gap', round(gap, 1), 'mmol/L', withK ? 'AG = Na + K - (Cl + HCO3)' : 'AG = Na - (Cl + HCO3)', inputs, 'kraut2007');
+  const na = ch.na, cl = ch.cl, k = ch.k;
+  explain.anionGap = () => {
+    const inputs = [input('Na', na, 'mmol/L'), input('Cl', cl, 'mmol/L'), input('HCO3', g.hco3, 'mmol/L')];
+    if (withK && has(k)) inputs.splice(1, 0, input('K', k, 'mmol/L'));
+    return explanation('anionGap', 'Anion gap', round(gap, 1), 'mmol/L', withK ? 'AG = Na + K - (Cl + HCO3)' : 'AG = Na - (Cl + HCO3)', inputs, 'kraut2007');
+  };
   let used = gap;
   m.anionGapUsed = 'uncorrected';
   if (has(ch.albumin)) {
@@ -56,10 +59,13 @@ export function otherMetabolic(c: CanonicalCase, sbe: number, d: Derived, m: Met
   if (has(ch.na) && has(ch.glucose) && has(ch.urea)) {
     const calc = calculatedOsmolality(ch.na, ch.glucose, ch.urea, ch.ethanol);
     d.calculatedOsmolality = calc;
-    const inputs = [input('Na', ch.na, 'mmol/L'), input('Glucose', round(ch.glucose, 1), 'mmol/L'), input('Urea', round(ch.urea, 1), 'mmol/L')];
-    if (has(ch.ethanol)) inputs.push(input('Ethanol', round(ch.ethanol, 1), 'mmol/L'));
-    explain.calculatedOsmolality = () => explanation('calculatedOsmolality', 'Calculated osmolality', round(calc, 1), 'mOsm/kg',
-      has(ch.ethanol) ? '2 Na + glucose + urea + ethanol mg/dL / 3.7 (mmol/L)' : '2 Na + glucose + urea (mmol/L)', inputs, 'purssell2001');
+    const na = ch.na, glucose = ch.glucose, urea = ch.urea, ethanol = ch.ethanol;
+    explain.calculatedOsmolality = () => {
+      const inputs = [input('Na', na, 'mmol/L'), input('Glucose', round(glucose, 1), 'mmol/L'), input('Urea', round(urea, 1), 'mmol/L')];
+      if (has(ethanol)) inputs.push(input('Ethanol', round(ethanol, 1), 'mmol/L'));
+      return explanation('calculatedOsmolality', 'Calculated osmolality', round(calc, 1), 'mOsm/kg',
+        has(ethanol) ? '2 Na + glucose + urea + ethanol mg/dL / 3.7 (mmol/L)' : '2 Na + glucose + urea (mmol/L)', inputs, 'purssell2001');
+    };
     if (has(ch.osmolality)) {
       const gap = osmolarGap(ch.osmolality, calc);
       d.osmolarGap = gap;
