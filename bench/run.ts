@@ -16,7 +16,7 @@ interface Row { figure: string; value: string; target: string; pass: boolean | n
 const rows: Row[] = [];
 const record = (figure: string, value: string, target: string, pass: boolean | null) => {
   rows.push({ figure, value, target, pass });
-  console.log(`${figure.padEnd(46)} ${value.padStart(26)}   ${target && !target.startsWith('(') ? `target ${target}` : target}`.padEnd(96) + (pass === null ? '' : pass ? 'PASS' : 'FAIL'));
+  console.log(`${figure.padEnd(46)} ${value.padStart(26)}   ${target && !target.startsWith('(') ? `target ${target}` : target}`.padEnd(100) + (pass === null ? '' : pass ? 'PASS' : 'FAIL'));
 };
 
 function freePort(): Promise<number> {
