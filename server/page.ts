@@ -22,10 +22,6 @@ const FORM_TYPES = new Set(['application/x-www-form-urlencoded', 'multipart/form
 
 const isHtmx = (c: Context) => c.req.header('hx-request') === 'true';
 
-// A paste may be a whole printout or FHIR payload (up to MAX_PASTE_CHARS characters). The paste forms post
-// multipart/form-data, which carries the text as it is (URL-encoding would triple punctuation-heavy text such as
-// JSON), so the paste fits the same 64 KiB limit as every other body.
-
 const isObject = (x: unknown): x is Record<string, unknown> => x !== null && typeof x === 'object' && !Array.isArray(x);
 const isResource = (x: unknown) => isObject(x) && typeof x.resourceType === 'string';
 
@@ -151,7 +147,9 @@ export function pageRoutes(deps: PageDeps): Hono {
     return send(c, { ...state, format: 'markdown' }, { edited: { note, handover: form.handover ?? '' }, keepFocus: true, announce: 'Preview updated.' });
   });
 
-  // a paste on the first step: read it and show what was read; on confirm, fill the case and go on
+  // a paste on the first step: read it and show what was read; on confirm, fill the case and go on. A paste may be
+  // a whole printout or FHIR payload (up to MAX_PASTE_CHARS characters); the paste forms post multipart/form-data,
+  // which carries the text as it is (URL-encoding would triple JSON), so it fits the same 64 KiB as any body
   const pasteLimit = bodyLimit({ maxSize: BODY_LIMIT_BYTES, onError: (c) => problem(c, 413, `The pasted text is too long: paste the result lines only (at most ${MAX_PASTE_CHARS} characters).`) });
   page.post('/paste', pasteLimit, async (c) => {
     const got = await withState(c);

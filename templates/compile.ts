@@ -29,7 +29,6 @@ export class Unsupported extends Error {}
 const runtime = nunjucks.runtime as Runtime;
 const parse = (source: string, extensions: unknown[], opts: unknown): AnyNode =>
   (nunjucks as unknown as { parser: { parse(src: string, ext: unknown[], opts: unknown): AnyNode } }).parser.parse(source, extensions, opts);
-const hasOwn = (o: object, k: string) => Object.prototype.hasOwnProperty.call(o, k);
 
 /** Compile-time scope: the names a block can see as JavaScript variables. */
 class Block {
@@ -491,31 +490,38 @@ export function createCompiledTemplates(env: nunjucks.Environment) {
     },
   };
 
+  // a name resolves the same way for the renderer's whole life (the loader neither watches nor reloads)
+  const resolved = new Map<string, CompiledTemplate>();
+
   function get(name: string, parent: string | null): CompiledTemplate {
+    const cacheKey = `${parent ?? ''}\0${name}`;
+    const known = resolved.get(cacheKey);
+    if (known) return known;
     const tmpl = (env as unknown as { getTemplate(n: string, eager: boolean, parent?: string): { path: string; tmplStr: string } }).getTemplate(name, false, parent ?? undefined);
     const key = tmpl.path ?? name;
-    let hit = compiled.get(key);
-    if (hit) return hit;
-    const ast = parse(tmpl.tmplStr, extensions, opts);
-    const { body, exportNames } = new Compiler(name, key, throwOnUndefined, autoescape).compileRoot(ast);
-    // eslint-disable-next-line no-new-func -- a template is code by design; it comes from our folder or the department's
-    const render = new Function('rt', body)(rt) as (s: Scope) => string;
-    hit = { name, exportNames, render };
+    const hit = compiled.get(key) ?? compileSource(name, key, tmpl.tmplStr);
     compiled.set(key, hit);
+    resolved.set(cacheKey, hit);
     return hit;
   }
+
+  function compileSource(name: string, path: string, source: string): CompiledTemplate {
+    const { body, exportNames } = new Compiler(name, path, throwOnUndefined, autoescape).compileRoot(parse(source, extensions, opts));
+    // a template is code by design; it comes from our folder or the department's, as nunjucks' own output does
+    const render = new Function('rt', body)(rt) as (s: Scope) => string;
+    return { name, exportNames, render };
+  }
+
+  /** A template as a function of its variables, with the environment's globals beneath them (as nunjucks' context has). */
+  const entry = (t: CompiledTemplate) => (data: Scope): string => t.render(Object.assign({}, globals, data));
 
   return {
     /** the compiled template for a name, compiling it (and nothing else) on first use */
     get: (name: string) => get(name, null),
-    /** a template's text for the given variables, with the environment's globals beneath them */
-    render: (name: string, data: Scope) => get(name, null).render(Object.assign({}, globals, data)),
+    entry,
+    /** a template's text for the given variables */
+    render: (name: string, data: Scope) => entry(get(name, null))(data),
     /** compile a template from source text under a name of its own (not looked up in the folders) */
-    fromString(name: string, source: string): CompiledTemplate {
-      const ast = parse(source, extensions, opts);
-      const { body, exportNames } = new Compiler(name, name, throwOnUndefined, autoescape).compileRoot(ast);
-      const render = new Function('rt', body)(rt) as (s: Scope) => string;
-      return { name, exportNames, render: (scope: Scope) => render(Object.assign({}, globals, scope)) };
-    },
+    fromString: (name: string, source: string): CompiledTemplate => compileSource(name, name, source),
   };
 }

@@ -187,13 +187,12 @@ function compiledEntries(env: nunjucks.Environment, names: Iterable<string>, eng
   try {
     const compiled = createCompiledTemplates(env);
     for (const name of names) compiled.get(name);
-    const flagMessage = compiled.fromString('flag-message', FLAG_MESSAGE_SOURCE);
     return {
       engine: 'compiled',
-      line: (d) => compiled.render(ENTRY.line, d),
-      note: (d) => compiled.render(ENTRY.note, d),
-      handover: (d) => compiled.render(ENTRY.handover, d),
-      flagMessage: (d) => flagMessage.render(d),
+      line: compiled.entry(compiled.get(ENTRY.line)),
+      note: compiled.entry(compiled.get(ENTRY.note)),
+      handover: compiled.entry(compiled.get(ENTRY.handover)),
+      flagMessage: compiled.entry(compiled.fromString('flag-message', FLAG_MESSAGE_SOURCE)),
     };
   } catch (error) {
     if (error instanceof Unsupported) return null;
