@@ -9,7 +9,7 @@ import { BENCH_CASE } from './case.ts';
 
 const SHORT = process.env.BENCH_SHORT === '1';
 // the same Node flags as npm start (package.json): a larger young generation, so short-lived objects cost less
-const NODE_FLAGS = ['--max-semi-space-size=32'];
+const NODE_FLAGS = ['--max-semi-space-size=64'];
 const seconds = (full: number, short: number) => (SHORT ? short : full);
 
 interface Row { figure: string; value: string; target: string; pass: boolean | null }
