@@ -132,10 +132,9 @@ export function createNoteRenderer(options: { templateDir?: string | null; engin
     ? pairs.filter((p) => Array.isArray(p) && p[1] !== null && p[1] !== undefined && String(p[1]).trim() !== '')
     : []));
 
-  // read and compile everything now, the department's files and the defaults alike
+  // read and compile everything now, the department's files and the defaults alike, by one engine or the other
   const names = new Set<string>(searchPaths.flatMap((dir) => templateFiles(dir)));
-  for (const name of names) env.getTemplate(name, true);
-  const entries = compiledEntries(env, names, options.engine ?? 'compiled') ?? nunjucksEntries(env);
+  const entries = compiledEntries(env, names, options.engine ?? 'compiled') ?? nunjucksEntries(env, names);
 
   return {
     engine: entries.engine,
@@ -164,7 +163,8 @@ type Entry = (data: Record<string, unknown>) => string;
 interface Entries { engine: 'compiled' | 'nunjucks'; line: Entry; note: Entry; handover: Entry; flagMessage: Entry }
 
 /** nunjucks' own runtime: the reference the compiled templates are tested against, and the fallback. */
-function nunjucksEntries(env: nunjucks.Environment): Entries {
+function nunjucksEntries(env: nunjucks.Environment, names: Iterable<string>): Entries {
+  for (const name of names) env.getTemplate(name, true);
   const line = env.getTemplate(ENTRY.line, true);
   const note = env.getTemplate(ENTRY.note, true);
   const handover = env.getTemplate(ENTRY.handover, true);
