@@ -6,7 +6,10 @@ const n = Number(process.argv[3]);
 const parsed = core.parseCase(kase);
 if (!parsed.ok) throw new Error('the benchmark case is invalid');
 const out = {};
-for (const [name, fn] of [['interpret', () => core.interpret(kase)], ['validated', () => core.interpretParsed(parsed.value)]]) {
+for (const [name, fn] of [
+  ['interpret', () => core.interpret(kase)],
+  ['validated', () => core.interpretParsed(parsed.value)],
+]) {
   for (let i = 0; i < Math.min(50_000, n); i++) fn();
   const start = process.hrtime.bigint();
   for (let i = 0; i < n; i++) fn();

@@ -17,10 +17,12 @@ export const hendersonBicarbonate = (hPlus: number, pco2: number): number => (24
 export const hendersonPco2 = (hPlus: number, hco3: number): number => (hPlus * hco3) / 24;
 
 // Henderson equation with PaCO2 in kPa: [H+] = 180 x PaCO2 / HCO3 (24 x 7.50062 = 180.0).
-export const hendersonHydrogenIonKpa = (pco2Kpa: number, hco3: number): number => (180 * pco2Kpa) / hco3;
+export const hendersonHydrogenIonKpa = (pco2Kpa: number, hco3: number): number =>
+  (180 * pco2Kpa) / hco3;
 
 // Henderson-Hasselbalch: pH = 6.1 + log10(HCO3 / (0.0307 x PaCO2)).
-export const hendersonHasselbalchPh = (pco2: number, hco3: number): number => 6.1 + Math.log10(hco3 / (0.0307 * pco2));
+export const hendersonHasselbalchPh = (pco2: number, hco3: number): number =>
+  6.1 + Math.log10(hco3 / (0.0307 * pco2));
 
 export interface Consistency {
   reported: number;
@@ -35,6 +37,7 @@ export function hendersonConsistency(ph: number, pco2: number, reportedHco3: num
   const calculated = hendersonBicarbonate(hydrogenIon(ph), pco2);
   const difference = reportedHco3 - calculated;
   const relative = Math.abs(difference) / calculated;
-  const consistent = Math.abs(difference) <= CONSISTENCY.absolute && relative <= CONSISTENCY.relative;
+  const consistent =
+    Math.abs(difference) <= CONSISTENCY.absolute && relative <= CONSISTENCY.relative;
   return { reported: reportedHco3, calculated, difference, relative, consistent };
 }

@@ -6,7 +6,8 @@ export const anionGap = (na: number, cl: number, hco3: number, k: number | null 
   na + (k ?? 0) - (cl + hco3);
 
 // Albumin-corrected AG = AG + 2.5 x (4.0 - albumin g/dL) (Figge et al. 1998).
-export const albuminCorrectedAnionGap = (ag: number, albuminGdl: number): number => ag + 2.5 * (4.0 - albuminGdl);
+export const albuminCorrectedAnionGap = (ag: number, albuminGdl: number): number =>
+  ag + 2.5 * (4.0 - albuminGdl);
 
 // Delta ratio = (AG - normal AG) / (24 - HCO3) (Wrenn 1990); only defined while HCO3 is below 24.
 export function deltaRatio(ag: number, hco3: number, normalAg = 12): number | null {
@@ -25,7 +26,8 @@ export function deltaRatioBand(ratio: number): DeltaBand {
 }
 
 // Urine anion gap = uNa + uK - uCl (common practice): negative in GI bicarbonate loss.
-export const urineAnionGap = (urineNa: number, urineK: number, urineCl: number): number => urineNa + urineK - urineCl;
+export const urineAnionGap = (urineNa: number, urineK: number, urineCl: number): number =>
+  urineNa + urineK - urineCl;
 
 // Urine chloride < 20 mmol/L: chloride-responsive metabolic alkalosis (common practice).
 export const chlorideResponsive = (urineCl: number): boolean => urineCl < URINE_CHLORIDE_RESPONSIVE;

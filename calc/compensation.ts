@@ -2,20 +2,34 @@
 import { COMPENSATION_BAND, NORMAL, PREGNANCY } from './reference.ts';
 import { hendersonPco2, hydrogenIon } from './acidBase.ts';
 
-export interface Band { low: number; high: number }
+export interface Band {
+  low: number;
+  high: number;
+}
 export type Timing = 'acute' | 'chronic' | 'unknown';
-export type DisorderCode = 'metabolic_acidosis' | 'metabolic_alkalosis' | 'respiratory_acidosis' | 'respiratory_alkalosis';
-export type DisorderDetail = 'high_anion_gap' | 'normal_anion_gap' | 'acute' | 'chronic' | 'acute_on_chronic';
+export type DisorderCode =
+  | 'metabolic_acidosis'
+  | 'metabolic_alkalosis'
+  | 'respiratory_acidosis'
+  | 'respiratory_alkalosis';
+export type DisorderDetail =
+  | 'high_anion_gap'
+  | 'normal_anion_gap'
+  | 'acute'
+  | 'chronic'
+  | 'acute_on_chronic';
 
 /** Why a process was named: the finding the templates put into words. */
 export type DisorderBasis =
-  | 'explains_ph'               // the primary process: it explains the direction of the pH
-  | 'normal_ph_mixed'           // pH normal with both components abnormal beyond compensation
-  | 'pco2_above_expected' | 'pco2_below_expected'
-  | 'hco3_above_expected' | 'hco3_below_expected'
-  | 'delta_ratio_mixed'         // delta ratio 0.4-0.8
-  | 'delta_ratio_high'          // delta ratio > 2
-  | 'raised_gap_hidden'         // raised AG though the HCO3 does not show an acidosis
+  | 'explains_ph' // the primary process: it explains the direction of the pH
+  | 'normal_ph_mixed' // pH normal with both components abnormal beyond compensation
+  | 'pco2_above_expected'
+  | 'pco2_below_expected'
+  | 'hco3_above_expected'
+  | 'hco3_below_expected'
+  | 'delta_ratio_mixed' // delta ratio 0.4-0.8
+  | 'delta_ratio_high' // delta ratio > 2
+  | 'raised_gap_hidden' // raised AG though the HCO3 does not show an acidosis
   | 'raised_gap_with_high_hco3';
 
 export interface Disorder {
@@ -38,9 +52,16 @@ export interface ReferencePoint {
   usualPhIgnored: boolean;
 }
 
-export interface Baseline { pco2?: number | null; hco3?: number | null; ph?: number | null }
+export interface Baseline {
+  pco2?: number | null;
+  hco3?: number | null;
+  ph?: number | null;
+}
 
-const band = (centre: number, half = COMPENSATION_BAND): Band => ({ low: centre - half, high: centre + half });
+const band = (centre: number, half = COMPENSATION_BAND): Band => ({
+  low: centre - half,
+  high: centre + half,
+});
 
 // Winters' formula (Albert, Dell and Winters 1967): expected PaCO2 = 1.5 x HCO3 + 8 (+/- 2).
 export const wintersPco2 = (hco3: number): Band => band(1.5 * hco3 + 8);
@@ -49,36 +70,63 @@ export const wintersPco2 = (hco3: number): Band => band(1.5 * hco3 + 8);
 export const metabolicAlkalosisPco2 = (hco3: number): Band => band(0.7 * hco3 + 21);
 
 // Respiratory acidosis (Berend 2014): HCO3 rises 1 (acute) or 3.5 (chronic) mmol/L per 10 mmHg above the reference.
-export function respiratoryAcidosisHco3(pco2: number, timing: 'acute' | 'chronic', ref = { pco2: 40, hco3: 24 }): Band {
+export function respiratoryAcidosisHco3(
+  pco2: number,
+  timing: 'acute' | 'chronic',
+  ref = { pco2: 40, hco3: 24 },
+): Band {
   const rate = timing === 'acute' ? 1 : 3.5;
   return band(ref.hco3 + (rate * (pco2 - ref.pco2)) / 10);
 }
 
 // Respiratory alkalosis (Berend 2014): HCO3 falls 2 (acute) or 4-5 (chronic) mmol/L per 10 mmHg below the reference.
-export function respiratoryAlkalosisHco3(pco2: number, timing: 'acute' | 'chronic', ref = { pco2: 40, hco3: 24 }): Band {
+export function respiratoryAlkalosisHco3(
+  pco2: number,
+  timing: 'acute' | 'chronic',
+  ref = { pco2: 40, hco3: 24 },
+): Band {
   const drop = (ref.pco2 - pco2) / 10;
   if (timing === 'acute') return band(ref.hco3 - 2 * drop);
-  const a = ref.hco3 - 5 * drop, b = ref.hco3 - 4 * drop;
+  const a = ref.hco3 - 5 * drop,
+    b = ref.hco3 - 4 * drop;
   return { low: Math.min(a, b) - COMPENSATION_BAND, high: Math.max(a, b) + COMPENSATION_BAND };
 }
 
 /** Expected HCO3 for a respiratory process, for the stated timing (unknown: the span from acute to chronic). */
-export function expectedHco3(pco2: number, timing: Timing, ref = { pco2: 40, hco3: 24 }): { band: Band; acute: Band; chronic: Band } {
+export function expectedHco3(
+  pco2: number,
+  timing: Timing,
+  ref = { pco2: 40, hco3: 24 },
+): { band: Band; acute: Band; chronic: Band } {
   const rule = pco2 >= ref.pco2 ? respiratoryAcidosisHco3 : respiratoryAlkalosisHco3;
-  const acute = rule(pco2, 'acute', ref), chronic = rule(pco2, 'chronic', ref);
+  const acute = rule(pco2, 'acute', ref),
+    chronic = rule(pco2, 'chronic', ref);
   const span = { low: Math.min(acute.low, chronic.low), high: Math.max(acute.high, chronic.high) };
-  return { band: timing === 'acute' ? acute : timing === 'chronic' ? chronic : span, acute, chronic };
+  return {
+    band: timing === 'acute' ? acute : timing === 'chronic' ? chronic : span,
+    acute,
+    chronic,
+  };
 }
 
 // Usual pH with the current gas: the current HCO3 is the chronic part plus the acute buffering of the change in
 // PaCO2 since baseline (Berend 2014 acute rules: +1 per 10 mmHg rising, -2 per 10 falling), so with k = 0.1 or 0.2
 // usual HCO3 = (HCO3 - k x PaCO2) / (1 - k x [H+]usual / 24) and usual PaCO2 = [H+]usual x usual HCO3 / 24 (Henderson).
-export function baselineFromUsualPh(usualPh: number, pco2: number, hco3: number): { pco2: number; hco3: number } {
+export function baselineFromUsualPh(
+  usualPh: number,
+  pco2: number,
+  hco3: number,
+): { pco2: number; hco3: number } {
   const h = hydrogenIon(usualPh);
-  for (const [k, rising] of [[0.1, true], [0.2, false]] as const) {
-    const numerator = hco3 - k * pco2, denominator = 1 - (k * h) / 24;
+  for (const [k, rising] of [
+    [0.1, true],
+    [0.2, false],
+  ] as const) {
+    const numerator = hco3 - k * pco2,
+      denominator = 1 - (k * h) / 24;
     if (numerator <= 0 || denominator <= 0) continue;
-    const usualHco3 = numerator / denominator, usualPco2 = hendersonPco2(h, usualHco3);
+    const usualHco3 = numerator / denominator,
+      usualPco2 = hendersonPco2(h, usualHco3);
     if (rising ? usualPco2 <= pco2 : usualPco2 >= pco2) return { pco2: usualPco2, hco3: usualHco3 };
   }
   return { pco2: hendersonPco2(h, hco3), hco3 };
@@ -94,12 +142,25 @@ const plausibleHco3 = (h: number): number => Math.min(70, Math.max(1, h));
  * the usual PaCO2 follows from the Henderson equation, reported as an estimate. A usual pH alone is not used
  * when the current HCO3 is below the reference range: that HCO3 has itself moved (a metabolic change).
  */
-export function referencePoint(baseline: Baseline | null | undefined, pregnant: boolean, currentHco3: number, currentPco2?: number): ReferencePoint {
+export function referencePoint(
+  baseline: Baseline | null | undefined,
+  pregnant: boolean,
+  currentHco3: number,
+  currentPco2?: number,
+): ReferencePoint {
   const ref = pregnant ? PREGNANCY : NORMAL;
-  const textbook = { pco2Band: { low: ref.pco2.low, high: ref.pco2.high }, hco3Band: { low: ref.hco3.low, high: ref.hco3.high } };
+  const textbook = {
+    pco2Band: { low: ref.pco2.low, high: ref.pco2.high },
+    hco3Band: { low: ref.hco3.low, high: ref.hco3.high },
+  };
   const textbookPoint = (usualPhIgnored: boolean): ReferencePoint => ({
-    pco2: ref.pco2.mid, hco3: ref.hco3.mid, pco2Band: textbook.pco2Band, hco3Band: textbook.hco3Band,
-    kind: pregnant ? 'pregnancy' : 'textbook', estimated: { pco2: false, hco3: false }, usualPhIgnored,
+    pco2: ref.pco2.mid,
+    hco3: ref.hco3.mid,
+    pco2Band: textbook.pco2Band,
+    hco3Band: textbook.hco3Band,
+    kind: pregnant ? 'pregnancy' : 'textbook',
+    estimated: { pco2: false, hco3: false },
+    usualPhIgnored,
   });
   const b = baseline ?? {};
   const has = (v: number | null | undefined): v is number => v !== null && v !== undefined;
@@ -111,25 +172,43 @@ export function referencePoint(baseline: Baseline | null | undefined, pregnant: 
     const h = hydrogenIon(b.ph);
     if (pco2 === null && hco3 === null) {
       if (currentHco3 < textbook.hco3Band.low) return textbookPoint(true);
-      const usual = currentPco2 === undefined ? { pco2: hendersonPco2(h, currentHco3), hco3: currentHco3 } : baselineFromUsualPh(b.ph, currentPco2, currentHco3);
-      pco2 = usual.pco2; hco3 = usual.hco3; estimated.pco2 = true; estimated.hco3 = true;
+      const usual =
+        currentPco2 === undefined
+          ? { pco2: hendersonPco2(h, currentHco3), hco3: currentHco3 }
+          : baselineFromUsualPh(b.ph, currentPco2, currentHco3);
+      pco2 = usual.pco2;
+      hco3 = usual.hco3;
+      estimated.pco2 = true;
+      estimated.hco3 = true;
     } else if (pco2 === null && hco3 !== null) {
-      pco2 = hendersonPco2(h, hco3); estimated.pco2 = true;
+      pco2 = hendersonPco2(h, hco3);
+      estimated.pco2 = true;
     } else if (pco2 !== null && hco3 === null) {
-      hco3 = (24 * pco2) / h; estimated.hco3 = true;
+      hco3 = (24 * pco2) / h;
+      estimated.hco3 = true;
     }
   }
   if (pco2 !== null && hco3 === null) {
     // usual HCO3 from the chronic rule, an estimate (Berend 2014)
-    hco3 = pco2 >= 40 ? 24 + (3.5 * (pco2 - 40)) / 10 : 24 - (4.5 * (40 - pco2)) / 10; estimated.hco3 = true;
+    hco3 = pco2 >= 40 ? 24 + (3.5 * (pco2 - 40)) / 10 : 24 - (4.5 * (40 - pco2)) / 10;
+    estimated.hco3 = true;
   }
   if (hco3 !== null && pco2 === null) {
     // usual PaCO2 by inverting the chronic respiratory rule, an estimate
-    pco2 = hco3 >= 24 ? 40 + ((hco3 - 24) * 10) / 3.5 : 40 - ((24 - hco3) * 10) / 4.5; estimated.pco2 = true;
+    pco2 = hco3 >= 24 ? 40 + ((hco3 - 24) * 10) / 3.5 : 40 - ((24 - hco3) * 10) / 4.5;
+    estimated.pco2 = true;
   }
   const p = estimated.pco2 ? plausiblePco2(pco2 as number) : (pco2 as number);
   const h = estimated.hco3 ? plausibleHco3(hco3 as number) : (hco3 as number);
-  return { pco2: p, hco3: h, pco2Band: { low: p - 5, high: p + 5 }, hco3Band: band(h), kind: 'baseline', estimated, usualPhIgnored: false };
+  return {
+    pco2: p,
+    hco3: h,
+    pco2Band: { low: p - 5, high: p + 5 },
+    hco3Band: band(h),
+    kind: 'baseline',
+    estimated,
+    usualPhIgnored: false,
+  };
 }
 
 export interface AnionGapView {
@@ -141,7 +220,9 @@ export interface AnionGapView {
 }
 
 export interface ClassifyInput {
-  ph: number; pco2: number; hco3: number;
+  ph: number;
+  pco2: number;
+  hco3: number;
   /** the PCO2 judged against the rules: measured, or the arterial estimate of a venous PCO2 */
   pco2Basis?: 'measured' | 'venous_estimate';
   /** for a venous estimate, the span of arterial PCO2 it stands for: an added respiratory process is
@@ -185,14 +266,17 @@ export function phStatus(ph: number): PhStatus {
 }
 
 const inBand = (v: number, b: Band) => v >= b.low && v <= b.high;
-const verdictOf = (v: number, b: Band): 'within' | 'above' | 'below' => (v > b.high ? 'above' : v < b.low ? 'below' : 'within');
+const verdictOf = (v: number, b: Band): 'within' | 'above' | 'below' =>
+  v > b.high ? 'above' : v < b.low ? 'below' : 'within';
 
 function respiratoryFit(hco3: number, acute: Band, chronic: Band): RespiratoryFit {
-  const a = inBand(hco3, acute), c = inBand(hco3, chronic);
+  const a = inBand(hco3, acute),
+    c = inBand(hco3, chronic);
   if (a && c) return 'either';
   if (a) return 'acute';
   if (c) return 'chronic';
-  const lo = Math.min(acute.low, chronic.low), hi = Math.max(acute.high, chronic.high);
+  const lo = Math.min(acute.low, chronic.low),
+    hi = Math.max(acute.high, chronic.high);
   if (hco3 > hi) return 'above';
   if (hco3 < lo) return 'below';
   return 'between';
@@ -212,15 +296,25 @@ function choosePrimary(x: ClassifyInput, status: PhStatus): DisorderCode | null 
     if (resp < 0 && (met >= 0 || -resp >= -met)) return 'respiratory_alkalosis';
     return 'metabolic_alkalosis';
   }
-  const pco2Off = !inBand(x.pco2, ref.pco2Band), hco3Off = !inBand(x.hco3, ref.hco3Band);
+  const pco2Off = !inBand(x.pco2, ref.pco2Band),
+    hco3Off = !inBand(x.hco3, ref.hco3Band);
   if (!pco2Off && !hco3Off) return null;
-  if (pco2Off && !hco3Off) return x.pco2 > ref.pco2Band.high ? 'respiratory_acidosis' : 'respiratory_alkalosis';
-  if (hco3Off && !pco2Off) return x.hco3 < ref.hco3Band.low ? 'metabolic_acidosis' : 'metabolic_alkalosis';
+  if (pco2Off && !hco3Off)
+    return x.pco2 > ref.pco2Band.high ? 'respiratory_acidosis' : 'respiratory_alkalosis';
+  if (hco3Off && !pco2Off)
+    return x.hco3 < ref.hco3Band.low ? 'metabolic_acidosis' : 'metabolic_alkalosis';
   // both off with a normal pH: the process on the side of the pH is taken as primary (common practice);
   // at exactly 7.40 the larger deviation decides
-  const respiratoryFirst = x.ph < NORMAL.ph.mid ? resp > 0 : x.ph > NORMAL.ph.mid ? resp < 0 : Math.abs(resp) >= Math.abs(met);
-  if (x.pco2 > ref.pco2 && x.hco3 > ref.hco3) return respiratoryFirst ? 'respiratory_acidosis' : 'metabolic_alkalosis';
-  if (x.pco2 < ref.pco2 && x.hco3 < ref.hco3) return respiratoryFirst ? 'respiratory_alkalosis' : 'metabolic_acidosis';
+  const respiratoryFirst =
+    x.ph < NORMAL.ph.mid
+      ? resp > 0
+      : x.ph > NORMAL.ph.mid
+        ? resp < 0
+        : Math.abs(resp) >= Math.abs(met);
+  if (x.pco2 > ref.pco2 && x.hco3 > ref.hco3)
+    return respiratoryFirst ? 'respiratory_acidosis' : 'metabolic_alkalosis';
+  if (x.pco2 < ref.pco2 && x.hco3 < ref.hco3)
+    return respiratoryFirst ? 'respiratory_alkalosis' : 'metabolic_acidosis';
   // same-direction changes (both acidifying or both alkalinising) cannot give a normal pH unless small
   if (resp > 0 || met > 0) return resp >= met ? 'respiratory_acidosis' : 'metabolic_acidosis';
   return -resp >= -met ? 'respiratory_alkalosis' : 'metabolic_alkalosis';
@@ -248,46 +342,141 @@ export function classify(x: ClassifyInput): Classification {
     const acid = primary === 'metabolic_acidosis';
     expectedPco2 = acid ? wintersPco2(x.hco3) : metabolicAlkalosisPco2(x.hco3);
     const span = x.pco2Range ?? { low: x.pco2, high: x.pco2 };
-    const verdict = span.low > expectedPco2.high ? 'above' : span.high < expectedPco2.low ? 'below' : 'within';
-    compensation = { primary, rule: acid ? 'winters' : 'metabolic_alkalosis', timing: x.timing, expected: expectedPco2, observed: x.pco2, verdict, fit: null, acute: null, chronic: null, pco2Basis: x.pco2Basis ?? 'measured' };
-    add({ code: primary, detail: acid ? anionGapDetail(x.anionGap) : null, role: 'primary', basis: verdict === 'within' ? 'explains_ph' : normalPhMixedBasis });
-    if (verdict === 'above') add({ code: 'respiratory_acidosis', detail: null, role: 'added', basis: 'pco2_above_expected' });
-    if (verdict === 'below') add({ code: 'respiratory_alkalosis', detail: null, role: 'added', basis: 'pco2_below_expected' });
+    const verdict =
+      span.low > expectedPco2.high ? 'above' : span.high < expectedPco2.low ? 'below' : 'within';
+    compensation = {
+      primary,
+      rule: acid ? 'winters' : 'metabolic_alkalosis',
+      timing: x.timing,
+      expected: expectedPco2,
+      observed: x.pco2,
+      verdict,
+      fit: null,
+      acute: null,
+      chronic: null,
+      pco2Basis: x.pco2Basis ?? 'measured',
+    };
+    add({
+      code: primary,
+      detail: acid ? anionGapDetail(x.anionGap) : null,
+      role: 'primary',
+      basis: verdict === 'within' ? 'explains_ph' : normalPhMixedBasis,
+    });
+    if (verdict === 'above')
+      add({
+        code: 'respiratory_acidosis',
+        detail: null,
+        role: 'added',
+        basis: 'pco2_above_expected',
+      });
+    if (verdict === 'below')
+      add({
+        code: 'respiratory_alkalosis',
+        detail: null,
+        role: 'added',
+        basis: 'pco2_below_expected',
+      });
   } else if (primary === 'respiratory_acidosis' || primary === 'respiratory_alkalosis') {
     const acidosis = primary === 'respiratory_acidosis';
     const e = expectedHco3(x.pco2, x.timing, x.reference);
     expectedHco3Band = e.band;
     const verdict = verdictOf(x.hco3, e.band);
     const fit = respiratoryFit(x.hco3, e.acute, e.chronic);
-    compensation = { primary, rule: acidosis ? 'respiratory_acidosis' : 'respiratory_alkalosis', timing: x.timing, expected: e.band, observed: x.hco3, verdict, fit, acute: e.acute, chronic: e.chronic, pco2Basis: x.pco2Basis ?? 'measured' };
-    const chronicBaseline = x.reference.kind === 'baseline' && (x.reference.pco2 > NORMAL.pco2.high || x.reference.pco2 < NORMAL.pco2.low);
+    compensation = {
+      primary,
+      rule: acidosis ? 'respiratory_acidosis' : 'respiratory_alkalosis',
+      timing: x.timing,
+      expected: e.band,
+      observed: x.hco3,
+      verdict,
+      fit,
+      acute: e.acute,
+      chronic: e.chronic,
+      pco2Basis: x.pco2Basis ?? 'measured',
+    };
+    const chronicBaseline =
+      x.reference.kind === 'baseline' &&
+      (x.reference.pco2 > NORMAL.pco2.high || x.reference.pco2 < NORMAL.pco2.low);
     let detail: DisorderDetail | null;
     if (x.timing === 'acute') detail = chronicBaseline ? 'acute_on_chronic' : 'acute';
     else if (x.timing === 'chronic') detail = 'chronic';
-    else detail = fit === 'acute' ? (chronicBaseline ? 'acute_on_chronic' : 'acute') : fit === 'chronic' ? 'chronic' : fit === 'between' ? 'acute_on_chronic' : null;
-    add({ code: primary, detail, role: 'primary', basis: verdict === 'within' ? 'explains_ph' : normalPhMixedBasis });
-    if (verdict === 'above') add({ code: 'metabolic_alkalosis', detail: null, role: 'added', basis: 'hco3_above_expected' });
-    if (verdict === 'below') add({ code: 'metabolic_acidosis', detail: anionGapDetail(x.anionGap), role: 'added', basis: 'hco3_below_expected' });
+    else
+      detail =
+        fit === 'acute'
+          ? chronicBaseline
+            ? 'acute_on_chronic'
+            : 'acute'
+          : fit === 'chronic'
+            ? 'chronic'
+            : fit === 'between'
+              ? 'acute_on_chronic'
+              : null;
+    add({
+      code: primary,
+      detail,
+      role: 'primary',
+      basis: verdict === 'within' ? 'explains_ph' : normalPhMixedBasis,
+    });
+    if (verdict === 'above')
+      add({
+        code: 'metabolic_alkalosis',
+        detail: null,
+        role: 'added',
+        basis: 'hco3_above_expected',
+      });
+    if (verdict === 'below')
+      add({
+        code: 'metabolic_acidosis',
+        detail: anionGapDetail(x.anionGap),
+        role: 'added',
+        basis: 'hco3_below_expected',
+      });
   }
 
   // The anion gap can reveal what the HCO3 hides (Kraut and Madias 2007; Wrenn 1990).
   const ag = x.anionGap;
   if (ag && ag.value > ag.upperLimit) {
-    const hasHighGap = disorders.some((d) => d.code === 'metabolic_acidosis' && d.detail === 'high_anion_gap');
+    const hasHighGap = disorders.some(
+      (d) => d.code === 'metabolic_acidosis' && d.detail === 'high_anion_gap',
+    );
     if (!hasHighGap) {
       const relabel = disorders.find((d) => d.code === 'metabolic_acidosis' && d.detail === null);
       if (relabel) relabel.detail = 'high_anion_gap';
-      else add({ code: 'metabolic_acidosis', detail: 'high_anion_gap', role: disorders.length ? 'added' : 'primary', basis: 'raised_gap_hidden' });
+      else
+        add({
+          code: 'metabolic_acidosis',
+          detail: 'high_anion_gap',
+          role: disorders.length ? 'added' : 'primary',
+          basis: 'raised_gap_hidden',
+        });
     }
     if (ag.deltaRatio === null) {
-      add({ code: 'metabolic_alkalosis', detail: null, role: 'added', basis: 'raised_gap_with_high_hco3' });
+      add({
+        code: 'metabolic_alkalosis',
+        detail: null,
+        role: 'added',
+        basis: 'raised_gap_with_high_hco3',
+      });
     } else if (ag.deltaRatio > 2) {
       add({ code: 'metabolic_alkalosis', detail: null, role: 'added', basis: 'delta_ratio_high' });
     } else if (ag.deltaRatio < 0.8) {
-      add({ code: 'metabolic_acidosis', detail: 'normal_anion_gap', role: 'added', basis: 'delta_ratio_mixed' });
+      add({
+        code: 'metabolic_acidosis',
+        detail: 'normal_anion_gap',
+        role: 'added',
+        basis: 'delta_ratio_mixed',
+      });
     }
   }
   // the first named process is the primary one
-  disorders.forEach((d, i) => { d.role = i === 0 ? 'primary' : 'added'; });
-  return { phStatus: status, disorders, compensation, expectedPco2, expectedHco3: expectedHco3Band };
+  disorders.forEach((d, i) => {
+    d.role = i === 0 ? 'primary' : 'added';
+  });
+  return {
+    phStatus: status,
+    disorders,
+    compensation,
+    expectedPco2,
+    expectedHco3: expectedHco3Band,
+  };
 }

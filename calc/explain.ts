@@ -1,7 +1,11 @@
 // How a number was reached: formula, inputs and source, so that any figure can be explained.
 import { SOURCES, type SourceKey } from './sources.ts';
 
-export interface Input { name: string; value: number; unit: string }
+export interface Input {
+  name: string;
+  value: number;
+  unit: string;
+}
 
 export interface Explanation {
   key: string;
@@ -20,11 +24,35 @@ export const input = (name: string, value: number, unit: string): Input => ({ na
  * 57.004712 mmHg) is shown as a reader would write it, not with the conversion's noise. Unlisted units keep 3.
  */
 const INPUT_DECIMALS: Readonly<Record<string, number>> = {
-  mmHg: 1, 'nmol/L': 1, 'mmol/L': 2, 'g/dL': 2, 'mOsm/kg': 1, mL: 1, 'mL/min': 0, '/min': 1, cm: 1, m: 0, cmH2O: 1, '%': 1, years: 1,
+  mmHg: 1,
+  'nmol/L': 1,
+  'mmol/L': 2,
+  'g/dL': 2,
+  'mOsm/kg': 1,
+  mL: 1,
+  'mL/min': 0,
+  '/min': 1,
+  cm: 1,
+  m: 0,
+  cmH2O: 1,
+  '%': 1,
+  years: 1,
 };
 
-export function explanation(key: string, label: string, value: number, unit: string, formula: string, inputs: Input[], source: SourceKey): Explanation {
-  const shown = inputs.map((i) => ({ name: i.name, value: round(i.value, INPUT_DECIMALS[i.unit] ?? 3), unit: i.unit }));
+export function explanation(
+  key: string,
+  label: string,
+  value: number,
+  unit: string,
+  formula: string,
+  inputs: Input[],
+  source: SourceKey,
+): Explanation {
+  const shown = inputs.map((i) => ({
+    name: i.name,
+    value: round(i.value, INPUT_DECIMALS[i.unit] ?? 3),
+    unit: i.unit,
+  }));
   return { key, label, value, unit, formula, inputs: shown, source: SOURCES[source] };
 }
 

@@ -3,7 +3,13 @@ import { type FieldError } from './schema.ts';
 import { type CanonicalCase, type Gas } from './canonical.ts';
 import { type Settings } from './reference.ts';
 import { type Consistency } from './acidBase.ts';
-import { type Band, type Compensation, type Disorder, type PhStatus, type ReferencePoint } from './compensation.ts';
+import {
+  type Band,
+  type Compensation,
+  type Disorder,
+  type PhStatus,
+  type ReferencePoint,
+} from './compensation.ts';
 import { type DeltaBand } from './anionGap.ts';
 import { type LactateBand } from './osmolality.ts';
 import { type OxygenationLevel, type PfBand } from './oxygenation.ts';
@@ -17,18 +23,41 @@ export interface Derived {
   hPlus: number;
   hco3Henderson: N;
   phHendersonHasselbalch: N;
-  anionGap: N; anionGapCorrected: N; deltaRatio: N;
-  expectedPco2: Band | null; expectedHco3: Band | null;
+  anionGap: N;
+  anionGapCorrected: N;
+  deltaRatio: N;
+  expectedPco2: Band | null;
+  expectedHco3: Band | null;
   standardBaseExcess: N;
-  sodiumChlorideEffect: N; albuminEffect: N; unmeasuredIonEffect: N;
-  apparentSid: N; effectiveSid: N; strongIonGap: N;
-  calculatedOsmolality: N; osmolarGap: N;
+  sodiumChlorideEffect: N;
+  albuminEffect: N;
+  unmeasuredIonEffect: N;
+  apparentSid: N;
+  effectiveSid: N;
+  strongIonGap: N;
+  calculatedOsmolality: N;
+  osmolarGap: N;
   urineAnionGap: N;
-  barometricPressure: N; alveolarPo2: N; aaGradient: N; aaGradientExpected: N;
-  pfRatio: N; sfRatio: N; oxygenContent: N;
-  predictedBodyWeightKg: N; vtPerKgPbw: N; drivingPressure: N;
-  deadSpaceMl: N; minuteVentilation: N; alveolarVentilation: N; co2Production: N; ventilatoryRatio: N;
-  targetPco2: N; targetPco2Simple: N; suggestedRr: N; suggestedVt: N; suggestedVtPerKgPbw: N;
+  barometricPressure: N;
+  alveolarPo2: N;
+  aaGradient: N;
+  aaGradientExpected: N;
+  pfRatio: N;
+  sfRatio: N;
+  oxygenContent: N;
+  predictedBodyWeightKg: N;
+  vtPerKgPbw: N;
+  drivingPressure: N;
+  deadSpaceMl: N;
+  minuteVentilation: N;
+  alveolarVentilation: N;
+  co2Production: N;
+  ventilatoryRatio: N;
+  targetPco2: N;
+  targetPco2Simple: N;
+  suggestedRr: N;
+  suggestedVt: N;
+  suggestedVtPerKgPbw: N;
   predictedPco2: N;
 }
 
@@ -78,10 +107,18 @@ export interface PreviousGas {
   label: string | null;
   gas: Gas;
   hPlus: number;
-  fio2: N; peep: N; vt: N; rr: N;
+  fio2: N;
+  peep: N;
+  vt: N;
+  rr: N;
 }
 
-export interface Change { field: 'ph' | 'pco2' | 'hco3' | 'po2' | 'lactate'; from: number; to: number; change: number }
+export interface Change {
+  field: 'ph' | 'pco2' | 'hco3' | 'po2' | 'lactate';
+  from: number;
+  to: number;
+  change: number;
+}
 
 export interface Serial {
   /** the latest earlier gas */
@@ -89,7 +126,11 @@ export interface Serial {
   ventilatorChanged: boolean;
   /** the alveolar ventilation equation applied to the change, when the settings allow */
   prediction: {
-    vaBefore: number; vaNow: number; predicted: number; observed: number; difference: number;
+    vaBefore: number;
+    vaNow: number;
+    predicted: number;
+    observed: number;
+    difference: number;
     verdict: 'as_predicted' | 'higher' | 'lower';
   } | null;
   predictionUnavailable: 'settings_unchanged' | 'settings_missing' | 'dead_space_unknown' | null;
@@ -117,7 +158,10 @@ export interface Findings {
   explain: Record<string, Explanation>;
 }
 
-export interface Rejected { ok: false; errors: FieldError[] }
+export interface Rejected {
+  ok: false;
+  errors: FieldError[];
+}
 
 export interface InterpretOptions {
   /** a department's defaults; a case's own settings override them */

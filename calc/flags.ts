@@ -41,7 +41,11 @@ export interface Flag {
   values: Record<string, FlagValue>;
 }
 
-export const flag = (code: FlagCode, severity: Severity, values: Record<string, FlagValue> = {}): Flag => ({ code, severity, values });
+export const flag = (
+  code: FlagCode,
+  severity: Severity,
+  values: Record<string, FlagValue> = {},
+): Flag => ({ code, severity, values });
 
 const ORDER: Record<Severity, number> = { critical: 0, warning: 1, info: 2 };
 export const bySeverity = (a: Flag, b: Flag): number => ORDER[a.severity] - ORDER[b.severity];

@@ -3,13 +3,23 @@ import { ETHANOL_MG_DL_PER_MMOL_L } from './units.ts';
 import { LACTATE, OSMOLAR_GAP_RAISED } from './reference.ts';
 
 // Calculated osmolality = 2 Na + glucose + urea (mmol/L), + ethanol mg/dL / 3.7 (Purssell et al. 2001).
-export function calculatedOsmolality(na: number, glucose: number, urea: number, ethanolMmolL: number | null = null): number {
+export function calculatedOsmolality(
+  na: number,
+  glucose: number,
+  urea: number,
+  ethanolMmolL: number | null = null,
+): number {
   const ethanol = ethanolMmolL === null ? 0 : (ethanolMmolL * ETHANOL_MG_DL_PER_MMOL_L) / 3.7;
   return 2 * na + glucose + urea + ethanol;
 }
 
 // Same in conventional units: 2 Na + glucose mg/dL / 18 + BUN mg/dL / 2.8 (+ ethanol mg/dL / 3.7).
-export function calculatedOsmolalityConventional(na: number, glucoseMgDl: number, bunMgDl: number, ethanolMgDl: number | null = null): number {
+export function calculatedOsmolalityConventional(
+  na: number,
+  glucoseMgDl: number,
+  bunMgDl: number,
+  ethanolMgDl: number | null = null,
+): number {
   return 2 * na + glucoseMgDl / 18 + bunMgDl / 2.8 + (ethanolMgDl ?? 0) / 3.7;
 }
 

@@ -2,10 +2,15 @@
 import { OXYGENATION, PHYSIOLOGY } from './reference.ts';
 
 // ICAO standard atmosphere (ISO 2533): PB = 760 x (1 - 2.25577e-5 x h)^5.25588, h in metres.
-export const barometricPressureAtAltitude = (altitudeM: number): number => 760 * (1 - 2.25577e-5 * altitudeM) ** 5.25588;
+export const barometricPressureAtAltitude = (altitudeM: number): number =>
+  760 * (1 - 2.25577e-5 * altitudeM) ** 5.25588;
 
 // Alveolar gas equation: PAO2 = FiO2 x (PB - 47) - PaCO2 / 0.8.
-export const alveolarPo2 = (fio2: number, pco2: number, barometric: number = PHYSIOLOGY.seaLevelMmHg): number =>
+export const alveolarPo2 = (
+  fio2: number,
+  pco2: number,
+  barometric: number = PHYSIOLOGY.seaLevelMmHg,
+): number =>
   fio2 * (barometric - PHYSIOLOGY.waterVapourMmHg) - pco2 / PHYSIOLOGY.respiratoryQuotient;
 
 // A-a gradient = PAO2 - PaO2.

@@ -3,7 +3,7 @@
 
 /** Normal arterial values (common practice). */
 export const NORMAL = {
-  ph: { low: 7.35, high: 7.45, mid: 7.40 },
+  ph: { low: 7.35, high: 7.45, mid: 7.4 },
   pco2: { low: 35, high: 45, mid: 40 },
   hco3: { low: 22, high: 26, mid: 24 },
   hPlus: 40,
@@ -19,10 +19,10 @@ export const PREGNANCY = {
 export const COMPENSATION_BAND = 2;
 
 /** Henderson consistency tolerance (clinical-scope section 2): flag beyond 3 mmol/L or 10%. */
-export const CONSISTENCY = { absolute: 3, relative: 0.10 } as const;
+export const CONSISTENCY = { absolute: 3, relative: 0.1 } as const;
 
 /** Unit mix-up screen: a PaCO2 below this in "mmHg" with a near-normal pH is probably kPa. */
-export const UNIT_SCREEN = { pco2MmHgBelow: 15, phLow: 7.30, phHigh: 7.50 } as const;
+export const UNIT_SCREEN = { pco2MmHgBelow: 15, phLow: 7.3, phHigh: 7.5 } as const;
 
 /** Delta ratio bands (Wrenn 1990). */
 export const DELTA_RATIO = { normalGapBelow: 0.4, mixedBelow: 0.8, highGapUpTo: 2.0 } as const;
@@ -38,12 +38,14 @@ export const URINE_CHLORIDE_RESPONSIVE = 20;
 
 /** Oxygenation bands. */
 export const OXYGENATION = {
-  hypoxaemia: 80,          // PaO2 below 80 mmHg: hypoxaemia (common practice)
-  respiratoryFailure: 60,  // PaO2 below 60 mmHg: respiratory failure (common practice)
-  hypercapnia: 45,         // PaCO2 above 45 mmHg with PaO2 < 60: type 2 failure (common practice)
-  pfMinimumPeep: 5,        // Berlin: bands apply with PEEP or CPAP >= 5 cmH2O
-  pfMild: 300, pfModerate: 200, pfSevere: 100,
-  sfThreshold: 315,        // 2024 global definition: SpO2/FiO2 <= 315 when SpO2 <= 97%
+  hypoxaemia: 80, // PaO2 below 80 mmHg: hypoxaemia (common practice)
+  respiratoryFailure: 60, // PaO2 below 60 mmHg: respiratory failure (common practice)
+  hypercapnia: 45, // PaCO2 above 45 mmHg with PaO2 < 60: type 2 failure (common practice)
+  pfMinimumPeep: 5, // Berlin: bands apply with PEEP or CPAP >= 5 cmH2O
+  pfMild: 300,
+  pfModerate: 200,
+  pfSevere: 100,
+  sfThreshold: 315, // 2024 global definition: SpO2/FiO2 <= 315 when SpO2 <= 97%
   sfMaxSpo2: 97,
   roomAirFio2: 0.21,
 } as const;
@@ -53,40 +55,56 @@ export const PHYSIOLOGY = {
   waterVapourMmHg: 47,
   respiratoryQuotient: 0.8,
   seaLevelMmHg: 760,
-  typicalVco2: 200,  // mL/min
-  typicalVo2: 250,   // mL/min
+  typicalVco2: 200, // mL/min
+  typicalVo2: 250, // mL/min
   anatomicDeadSpaceMlPerKg: 2.2, // Radford 1955
-  acuteBufferPerMmHg: 0.1,       // HCO3 mmol/L per mmHg PaCO2, acute (Berend 2014)
-  alveolarConstant: 0.863,       // West
+  acuteBufferPerMmHg: 0.1, // HCO3 mmol/L per mmHg PaCO2, acute (Berend 2014)
+  alveolarConstant: 0.863, // West
 } as const;
 
 /** Peripheral venous against arterial (Byrne et al. 2014, from memory): pH about 0.03 lower, HCO3 about
  * 1 higher, PCO2 about 4-6 mmHg higher with limits of agreement near +/- 20; venous PCO2 below 45 makes arterial hypercapnia unlikely.
  * Below `minPco2` the fixed offset is not applied (it would leave an implausible arterial value). */
-export const VENOUS = { ph: 0.03, hco3: 1, pco2Low: 4, pco2High: 6, pco2Mid: 5, pco2Limits: 20, hypercapniaBelow: 45, minPco2: 15 } as const;
+export const VENOUS = {
+  ph: 0.03,
+  hco3: 1,
+  pco2Low: 4,
+  pco2High: 6,
+  pco2Mid: 5,
+  pco2Limits: 20,
+  hypercapniaBelow: 45,
+  minPco2: 15,
+} as const;
 
 /** Serial gases: an observed PaCO2 within the larger of 3 mmHg or 10% of the one predicted by the alveolar
  * ventilation equation counts as "as predicted" (our own tolerance for analyser and sampling variation;
  * common practice). */
-export const SERIAL = { pco2Absolute: 3, pco2Relative: 0.10 } as const;
+export const SERIAL = { pco2Absolute: 3, pco2Relative: 0.1 } as const;
 
 /** Lung-protective ventilation thresholds. */
 export const VENTILATION = {
-  vtTargetPerKg: 6, vtLowPerKg: 4, vtHighPerKg: 8, // ARDS Network 2000
-  plateauMax: 30,                                   // ARDS Network 2000
-  drivingPressureMax: 15,                           // Amato 2015
-  rrMax: 35,                                        // air trapping, auto-PEEP (common practice)
-  recheckMinutes: { low: 20, high: 30 },            // common practice
+  vtTargetPerKg: 6,
+  vtLowPerKg: 4,
+  vtHighPerKg: 8, // ARDS Network 2000
+  plateauMax: 30, // ARDS Network 2000
+  drivingPressureMax: 15, // Amato 2015
+  rrMax: 35, // air trapping, auto-PEEP (common practice)
+  recheckMinutes: { low: 20, high: 30 }, // common practice
 } as const;
 
 /** Settings a department or a clinician may change. */
 export interface Settings {
-  anionGapNormal: number;          // mmol/L, mid of the lab's reference
-  anionGapHalfWidth: number;       // mmol/L, upper limit = normal + halfWidth
+  anionGapNormal: number; // mmol/L, mid of the lab's reference
+  anionGapHalfWidth: number; // mmol/L, upper limit = normal + halfWidth
   anionGapIncludesK: boolean;
   critical: {
-    phLow: number; phHigh: number; pco2High: number; po2Low: number;
-    kLow: number; kHigh: number; lactateHigh: number;
+    phLow: number;
+    phHigh: number;
+    pco2High: number;
+    po2Low: number;
+    kLow: number;
+    kHigh: number;
+    lactateHigh: number;
   };
 }
 
@@ -95,10 +113,23 @@ export const DEFAULT_SETTINGS: Settings = {
   anionGapNormal: 12,
   anionGapHalfWidth: 4,
   anionGapIncludesK: false,
-  critical: { phLow: 7.20, phHigh: 7.60, pco2High: 70, po2Low: 60, kLow: 2.8, kHigh: 6.2, lactateHigh: 4 },
+  critical: {
+    phLow: 7.2,
+    phHigh: 7.6,
+    pco2High: 70,
+    po2Low: 60,
+    kLow: 2.8,
+    kHigh: 6.2,
+    lactateHigh: 4,
+  },
 };
 
-export function mergeSettings(partial: Partial<Omit<Settings, 'critical'>> & { critical?: Partial<Settings['critical']> } | undefined | null): Settings {
+export function mergeSettings(
+  partial:
+    | (Partial<Omit<Settings, 'critical'>> & { critical?: Partial<Settings['critical']> })
+    | undefined
+    | null,
+): Settings {
   if (!partial) return DEFAULT_SETTINGS;
   return {
     anionGapNormal: partial.anionGapNormal ?? DEFAULT_SETTINGS.anionGapNormal,
@@ -109,5 +140,7 @@ export function mergeSettings(partial: Partial<Omit<Settings, 'critical'>> & { c
 }
 
 function stripNullish<T extends object>(o: T): Partial<T> {
-  return Object.fromEntries(Object.entries(o).filter(([, v]) => v !== null && v !== undefined)) as Partial<T>;
+  return Object.fromEntries(
+    Object.entries(o).filter(([, v]) => v !== null && v !== undefined),
+  ) as Partial<T>;
 }

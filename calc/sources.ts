@@ -1,14 +1,16 @@
 // Every published source the core cites, named once so that explanations and tests agree.
 export const SOURCES = {
   siPressure: 'SI definition: 1 mmHg = 133.322 Pa, so 1 kPa = 7.50062 mmHg',
-  molarMass: 'Molar masses: glucose 180.16 g/mol, urea nitrogen (N2) 28.01 g/mol, creatinine 113.12 g/mol (88.4 umol/L per mg/dL), ethanol 46.07 g/mol',
+  molarMass:
+    'Molar masses: glucose 180.16 g/mol, urea nitrogen (N2) 28.01 g/mol, creatinine 113.12 g/mol (88.4 umol/L per mg/dL), ethanol 46.07 g/mol',
   hydrogenIon: 'Definition of pH: [H+] nmol/L = 10^(9 - pH)',
   henderson: 'Henderson equation: [H+] = 24 x PaCO2 / HCO3 (nmol/L, mmHg, mmol/L)',
   hendersonHasselbalch: 'Henderson-Hasselbalch: pH = 6.1 + log10(HCO3 / (0.0307 x PaCO2))',
   commonPractice: 'Common practice',
   berend2014: 'Berend K, de Vries APJ, Gans ROB. N Engl J Med 2014;371:1434-45',
-  winters: 'Albert MS, Dell RB, Winters RW. Ann Intern Med 1967;66:312-22 (Winters\' formula)',
-  pregnancy: 'Common practice (textbook): pregnancy is a physiological chronic respiratory alkalosis, PaCO2 about 28-32 mmHg, HCO3 about 18-22 mmol/L',
+  winters: "Albert MS, Dell RB, Winters RW. Ann Intern Med 1967;66:312-22 (Winters' formula)",
+  pregnancy:
+    'Common practice (textbook): pregnancy is a physiological chronic respiratory alkalosis, PaCO2 about 28-32 mmHg, HCO3 about 18-22 mmol/L',
   kraut2007: 'Kraut JA, Madias NE. Clin J Am Soc Nephrol 2007;2:162-74',
   figge1998: 'Figge J, Jabor A, Kazda A, Fencl V. Crit Care Med 1998;26:1807-10',
   wrenn1990: 'Wrenn K. Ann Emerg Med 1990;19:1310-13',
@@ -21,15 +23,20 @@ export const SOURCES = {
   alveolarGas: 'Alveolar gas equation (PH2O 47 mmHg at 37 C, RQ 0.8)',
   aaAge: 'Common practice: expected A-a gradient on room air about age/4 + 4 mmHg',
   ardsBerlin: 'ARDS Definition Task Force. JAMA 2012;307:2526-33 (Berlin definition)',
-  ardsGlobal2024: 'Matthay MA et al. Am J Respir Crit Care Med 2024;209:37-47 (global definition of ARDS)',
+  ardsGlobal2024:
+    'Matthay MA et al. Am J Respir Crit Care Med 2024;209:37-47 (global definition of ARDS)',
   oxygenContent: 'Textbook oxygen content: CaO2 = 1.34 x Hb x SaO2 + 0.003 x PaO2',
-  byrne2014: 'Byrne AL et al. Respirology 2014;19:168-75 (venous vs arterial systematic review; figures from memory)',
+  byrne2014:
+    'Byrne AL et al. Respirology 2014;19:168-75 (venous vs arterial systematic review; figures from memory)',
   ardsnet2000: 'ARDS Network. N Engl J Med 2000;342:1301-08',
   amato2015: 'Amato MBP et al. N Engl J Med 2015;372:747-55',
   west: 'West JB. Respiratory Physiology: alveolar ventilation equation PaCO2 = 0.863 x VCO2 / VA',
-  radford1955: 'Radford EP. J Appl Physiol 1955;7:451-60 (anatomic dead space about 2.2 mL/kg; from memory)',
-  sinha2009: 'Sinha P et al. Am J Respir Crit Care Med 2009;180:1220 (ventilatory ratio; from memory)',
-  targetPco2: 'Henderson equation with acute buffering of 0.1 mmol/L HCO3 per mmHg PaCO2 (Berend 2014 acute rule)',
+  radford1955:
+    'Radford EP. J Appl Physiol 1955;7:451-60 (anatomic dead space about 2.2 mL/kg; from memory)',
+  sinha2009:
+    'Sinha P et al. Am J Respir Crit Care Med 2009;180:1220 (ventilatory ratio; from memory)',
+  targetPco2:
+    'Henderson equation with acute buffering of 0.1 mmol/L HCO3 per mmHg PaCO2 (Berend 2014 acute rule)',
   criticalValues: 'Common practice critical-value defaults (laboratory-specific; configurable)',
 } as const;
 

@@ -20,8 +20,13 @@ export interface Units {
 }
 
 export const DEFAULT_UNITS: Units = {
-  pressure: 'mmHg', albumin: 'g/dL', hb: 'g/dL', glucose: 'mg/dL', urea: 'bun-mg/dL',
-  creatinine: 'mg/dL', ethanol: 'mg/dL',
+  pressure: 'mmHg',
+  albumin: 'g/dL',
+  hb: 'g/dL',
+  glucose: 'mg/dL',
+  urea: 'bun-mg/dL',
+  creatinine: 'mg/dL',
+  ethanol: 'mg/dL',
 };
 
 // SI: 1 mmHg = 101325 / 760 = 133.3224 Pa (133.322 rounded), so 1 kPa = 760 / 101.325 = 7.50062 mmHg.
@@ -55,41 +60,69 @@ export function fio2Fraction(entered: number): number {
 }
 
 /** A canonical value expressed in the unit the clinician uses, for display and messages. */
-export type Quantity = 'pressure' | 'albumin' | 'hb' | 'glucose' | 'urea' | 'creatinine' | 'ethanol';
+export type Quantity =
+  | 'pressure'
+  | 'albumin'
+  | 'hb'
+  | 'glucose'
+  | 'urea'
+  | 'creatinine'
+  | 'ethanol';
 
 export function toCanonical(kind: Quantity, value: number, units: Units): number {
   switch (kind) {
-    case 'pressure': return units.pressure === 'kPa' ? kpaToMmHg(value) : value;
-    case 'albumin': return units.albumin === 'g/L' ? gPerLToGPerDl(value) : value;
-    case 'hb': return units.hb === 'g/L' ? gPerLToGPerDl(value) : value;
-    case 'glucose': return units.glucose === 'mg/dL' ? glucoseMgDlToMmolL(value) : value;
-    case 'urea': return units.urea === 'bun-mg/dL' ? bunMgDlToUreaMmolL(value) : value;
-    case 'creatinine': return units.creatinine === 'mg/dL' ? creatinineMgDlToUmolL(value) : value;
-    case 'ethanol': return units.ethanol === 'mg/dL' ? ethanolMgDlToMmolL(value) : value;
+    case 'pressure':
+      return units.pressure === 'kPa' ? kpaToMmHg(value) : value;
+    case 'albumin':
+      return units.albumin === 'g/L' ? gPerLToGPerDl(value) : value;
+    case 'hb':
+      return units.hb === 'g/L' ? gPerLToGPerDl(value) : value;
+    case 'glucose':
+      return units.glucose === 'mg/dL' ? glucoseMgDlToMmolL(value) : value;
+    case 'urea':
+      return units.urea === 'bun-mg/dL' ? bunMgDlToUreaMmolL(value) : value;
+    case 'creatinine':
+      return units.creatinine === 'mg/dL' ? creatinineMgDlToUmolL(value) : value;
+    case 'ethanol':
+      return units.ethanol === 'mg/dL' ? ethanolMgDlToMmolL(value) : value;
   }
 }
 
 export function fromCanonical(kind: Quantity, value: number, units: Units): number {
   switch (kind) {
-    case 'pressure': return units.pressure === 'kPa' ? mmHgToKpa(value) : value;
-    case 'albumin': return units.albumin === 'g/L' ? gPerDlToGPerL(value) : value;
-    case 'hb': return units.hb === 'g/L' ? gPerDlToGPerL(value) : value;
-    case 'glucose': return units.glucose === 'mg/dL' ? glucoseMmolLToMgDl(value) : value;
-    case 'urea': return units.urea === 'bun-mg/dL' ? ureaMmolLToBunMgDl(value) : value;
-    case 'creatinine': return units.creatinine === 'mg/dL' ? creatinineUmolLToMgDl(value) : value;
-    case 'ethanol': return units.ethanol === 'mg/dL' ? ethanolMmolLToMgDl(value) : value;
+    case 'pressure':
+      return units.pressure === 'kPa' ? mmHgToKpa(value) : value;
+    case 'albumin':
+      return units.albumin === 'g/L' ? gPerDlToGPerL(value) : value;
+    case 'hb':
+      return units.hb === 'g/L' ? gPerDlToGPerL(value) : value;
+    case 'glucose':
+      return units.glucose === 'mg/dL' ? glucoseMmolLToMgDl(value) : value;
+    case 'urea':
+      return units.urea === 'bun-mg/dL' ? ureaMmolLToBunMgDl(value) : value;
+    case 'creatinine':
+      return units.creatinine === 'mg/dL' ? creatinineUmolLToMgDl(value) : value;
+    case 'ethanol':
+      return units.ethanol === 'mg/dL' ? ethanolMmolLToMgDl(value) : value;
   }
 }
 
 /** The label of the unit a clinician sees for a quantity. */
 export function unitLabel(kind: Quantity, units: Units): string {
   switch (kind) {
-    case 'pressure': return units.pressure;
-    case 'albumin': return units.albumin;
-    case 'hb': return units.hb;
-    case 'glucose': return units.glucose;
-    case 'urea': return units.urea === 'bun-mg/dL' ? 'mg/dL' : 'mmol/L';
-    case 'creatinine': return units.creatinine === 'umol/L' ? 'µmol/L' : 'mg/dL';
-    case 'ethanol': return units.ethanol;
+    case 'pressure':
+      return units.pressure;
+    case 'albumin':
+      return units.albumin;
+    case 'hb':
+      return units.hb;
+    case 'glucose':
+      return units.glucose;
+    case 'urea':
+      return units.urea === 'bun-mg/dL' ? 'mg/dL' : 'mmol/L';
+    case 'creatinine':
+      return units.creatinine === 'umol/L' ? 'µmol/L' : 'mg/dL';
+    case 'ethanol':
+      return units.ethanol;
   }
 }

@@ -2,7 +2,14 @@
 import { Hono, type Context } from 'hono';
 import { bodyLimit } from './limits.ts';
 import { zValidator } from '@hono/zod-validator';
-import { caseSchema, interpret, interpretParsed, toFieldErrors, type Findings, type InterpretOptions } from '../calc/index.ts';
+import {
+  caseSchema,
+  interpret,
+  interpretParsed,
+  toFieldErrors,
+  type Findings,
+  type InterpretOptions,
+} from '../calc/index.ts';
 import type { NoteRenderer } from '../templates/index.ts';
 import { BODY_LIMIT_BYTES, jsonError } from './errors.ts';
 import { caseFromFhir, type FhirResult } from './intake/index.ts';
@@ -16,17 +23,32 @@ const JSON_TYPE = 'application/json';
 const FHIR_TYPE = 'application/fhir+json';
 const SAMPLES = new Set(['arterial', 'venous', 'capillary']);
 
-export const mediaType = (c: Context): string => (c.req.header('content-type') ?? '').split(';')[0]!.trim().toLowerCase();
+export const mediaType = (c: Context): string =>
+  (c.req.header('content-type') ?? '').split(';')[0]!.trim().toLowerCase();
 
 /** The response body for a reading: the contract's fields first, then what the page needs to explain. */
-export function interpretResponse(f: Findings, renderer: NoteRenderer, format: 'text' | 'markdown' = 'text') {
+export function interpretResponse(
+  f: Findings,
+  renderer: NoteRenderer,
+  format: 'text' | 'markdown' = 'text',
+) {
   const note = renderer.render(f, { format });
   return {
     ok: true as const,
     withheld: f.withheld,
     derived: f.derived,
-    disorders: f.disorders.map((d) => ({ code: d.code, detail: d.detail, role: d.role, basis: d.basis })),
-    flags: f.flags.map((flag) => ({ code: flag.code, severity: flag.severity, message: renderer.flagMessage(flag, f), values: flag.values })),
+    disorders: f.disorders.map((d) => ({
+      code: d.code,
+      detail: d.detail,
+      role: d.role,
+      basis: d.basis,
+    })),
+    flags: f.flags.map((flag) => ({
+      code: flag.code,
+      severity: flag.severity,
+      message: renderer.flagMessage(flag, f),
+      values: flag.values,
+    })),
     note: { line: note.line, text: note.text, handover: note.handover, format: note.format },
     phStatus: f.phStatus,
     compensation: f.compensation,
@@ -41,10 +63,17 @@ export function interpretResponse(f: Findings, renderer: NoteRenderer, format: '
   };
 }
 
-const noteFormat = (c: Context): 'text' | 'markdown' => (c.req.query('format') === 'markdown' ? 'markdown' : 'text');
+const noteFormat = (c: Context): 'text' | 'markdown' =>
+  c.req.query('format') === 'markdown' ? 'markdown' : 'text';
 
 /** What the FHIR reader found, beside the reading: nothing it did not use is dropped silently. */
-const fhirReport = (r: FhirResult) => ({ read: r.read, unused: r.unused, superseded: r.superseded, conversions: r.conversions, notes: r.notes });
+const fhirReport = (r: FhirResult) => ({
+  read: r.read,
+  unused: r.unused,
+  superseded: r.superseded,
+  conversions: r.conversions,
+  notes: r.notes,
+});
 
 /**
  * FHIR R4 Observations (a Bundle, a list, or one) coded with LOINC and UCUM. A sample type the codes do not
@@ -59,16 +88,26 @@ async function interpretFhir(c: Context, deps: ApiDeps) {
   }
   const fhir = caseFromFhir(json);
   const sample = c.req.query('sample');
-  if (sample !== undefined && !SAMPLES.has(sample)) return jsonError(c, 422, 'sample must be one of: arterial, venous, capillary', 'sample');
+  if (sample !== undefined && !SAMPLES.has(sample))
+    return jsonError(c, 422, 'sample must be one of: arterial, venous, capillary', 'sample');
   const questions = fhir.questions.filter((q) => !(q.path === 'sample' && sample));
   if (fhir.errors.length || questions.length) {
-    const errors = [...fhir.errors, ...questions.map((q) => ({ path: q.path, message: q.options?.length ? `${q.reason} (one of: ${q.options.join(', ')})` : q.reason }))];
+    const errors = [
+      ...fhir.errors,
+      ...questions.map((q) => ({
+        path: q.path,
+        message: q.options?.length ? `${q.reason} (one of: ${q.options.join(', ')})` : q.reason,
+      })),
+    ];
     return c.json({ ok: false, errors, fhir: fhirReport(fhir) }, 422);
   }
   const kase = sample ? { ...fhir.case, sample } : fhir.case;
   const result = interpret(kase, deps.interpretOptions);
   if (!result.ok) return c.json({ ok: false, errors: result.errors, fhir: fhirReport(fhir) }, 422);
-  return c.json({ ...interpretResponse(result, deps.renderer, noteFormat(c)), fhir: fhirReport(fhir) });
+  return c.json({
+    ...interpretResponse(result, deps.renderer, noteFormat(c)),
+    fhir: fhirReport(fhir),
+  });
 }
 
 export function apiRoutes(deps: ApiDeps): Hono {
@@ -78,11 +117,19 @@ export function apiRoutes(deps: ApiDeps): Hono {
 
   api.post(
     '/api/interpret',
-    bodyLimit({ maxSize: BODY_LIMIT_BYTES, onError: (c) => jsonError(c, 413, `The body is larger than ${BODY_LIMIT_BYTES / 1024} KiB`) }),
+    bodyLimit({
+      maxSize: BODY_LIMIT_BYTES,
+      onError: (c) => jsonError(c, 413, `The body is larger than ${BODY_LIMIT_BYTES / 1024} KiB`),
+    }),
     async (c, next) => {
       const type = mediaType(c);
       if (type === FHIR_TYPE) return interpretFhir(c, deps);
-      if (type !== JSON_TYPE) return jsonError(c, 415, `Send the case as Content-Type: ${JSON_TYPE}, or FHIR R4 Observations as ${FHIR_TYPE}`);
+      if (type !== JSON_TYPE)
+        return jsonError(
+          c,
+          415,
+          `Send the case as Content-Type: ${JSON_TYPE}, or FHIR R4 Observations as ${FHIR_TYPE}`,
+        );
       await next();
     },
     zValidator('json', caseSchema, (result, c) => {

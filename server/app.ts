@@ -20,7 +20,8 @@ export interface AppOptions {
 }
 
 export function createApp(options: AppOptions = {}): Hono {
-  const renderer = options.renderer ?? createNoteRenderer({ templateDir: options.templateDir ?? null });
+  const renderer =
+    options.renderer ?? createNoteRenderer({ templateDir: options.templateDir ?? null });
   const app = new Hono();
   const log = options.log;
 
@@ -28,7 +29,9 @@ export function createApp(options: AppOptions = {}): Hono {
     app.use(async (c, next) => {
       const start = performance.now();
       await next();
-      log(`${c.req.method} ${c.req.path} ${c.res.status} ${(performance.now() - start).toFixed(1)}ms`);
+      log(
+        `${c.req.method} ${c.req.path} ${c.res.status} ${(performance.now() - start).toFixed(1)}ms`,
+      );
     });
   }
 
@@ -44,7 +47,12 @@ export function createApp(options: AppOptions = {}): Hono {
       const status = err.status;
       if (status === 400) return jsonError(c, 400, 'The body is not valid JSON');
       if (status === 413) return jsonError(c, 413, 'The body is too large');
-      if (status === 403) return jsonError(c, 403, 'Refused: this form was not posted from this page (cross-origin request)');
+      if (status === 403)
+        return jsonError(
+          c,
+          403,
+          'Refused: this form was not posted from this page (cross-origin request)',
+        );
       return jsonError(c, status as 400, err.message || 'Bad request');
     }
     // a fault of ours, not of the request: say so without echoing anything from it

@@ -3,7 +3,8 @@
 import cluster from 'node:cluster';
 import { availableParallelism } from 'node:os';
 
-const requested = process.env.WORKERS === undefined ? availableParallelism() : Number(process.env.WORKERS);
+const requested =
+  process.env.WORKERS === undefined ? availableParallelism() : Number(process.env.WORKERS);
 if (!Number.isInteger(requested) || requested < 1 || requested > 64) {
   console.error(`WORKERS must be a whole number from 1 to 64 (got "${process.env.WORKERS}")`);
   process.exit(2);

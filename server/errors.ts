@@ -4,6 +4,11 @@ import type { ContentfulStatusCode } from 'hono/utils/http-status';
 
 export const BODY_LIMIT_BYTES = 64 * 1024;
 
-export function jsonError(c: Context, status: ContentfulStatusCode, message: string, path = '(body)') {
+export function jsonError(
+  c: Context,
+  status: ContentfulStatusCode,
+  message: string,
+  path = '(body)',
+) {
   return c.json({ ok: false, errors: [{ path, message }] }, status);
 }

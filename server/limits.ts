@@ -10,11 +10,18 @@ import { bodyLimit as honoBodyLimit } from 'hono/body-limit';
 
 const DIGITS = /^\d{1,15}$/;
 
-export function bodyLimit(options: { maxSize: number; onError: (c: Context) => Response | Promise<Response> }): MiddlewareHandler {
+export function bodyLimit(options: {
+  maxSize: number;
+  onError: (c: Context) => Response | Promise<Response>;
+}): MiddlewareHandler {
   const counted = honoBodyLimit(options);
   return (c, next) => {
     const length = c.req.header('content-length');
-    if (length !== undefined && c.req.header('transfer-encoding') === undefined && DIGITS.test(length)) {
+    if (
+      length !== undefined &&
+      c.req.header('transfer-encoding') === undefined &&
+      DIGITS.test(length)
+    ) {
       return Number(length) > options.maxSize ? Promise.resolve(options.onError(c)) : next();
     }
     return counted(c, next);

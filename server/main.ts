@@ -12,15 +12,22 @@ export function startServer(env: NodeJS.ProcessEnv = process.env) {
   }
   const hostname = env.HOST?.trim() || '127.0.0.1';
   if (!LOOPBACK.has(hostname)) {
-    console.warn(`WARNING: listening on ${hostname}. Gasline has no login of its own: put it behind the hospital's authentication and reverse proxy.`);
+    console.warn(
+      `WARNING: listening on ${hostname}. Gasline has no login of its own: put it behind the hospital's authentication and reverse proxy.`,
+    );
   }
   const app = createApp({
     templateDir: env.NOTE_TEMPLATES?.trim() || null,
-    allowedOrigins: (env.ALLOWED_ORIGINS ?? '').split(',').map((o) => o.trim()).filter(Boolean),
+    allowedOrigins: (env.ALLOWED_ORIGINS ?? '')
+      .split(',')
+      .map((o) => o.trim())
+      .filter(Boolean),
     log: env.REQUEST_LOG === 'off' ? undefined : (line) => console.log(line),
   });
   const server = serve({ fetch: app.fetch, port, hostname }, (info) => {
-    console.log(`Gasline listening on http://${hostname.includes(':') ? `[${hostname}]` : hostname}:${info.port}`);
+    console.log(
+      `Gasline listening on http://${hostname.includes(':') ? `[${hostname}]` : hostname}:${info.port}`,
+    );
   });
   const stop = () => server.close(() => process.exit(0));
   process.on('SIGINT', stop);

@@ -7,10 +7,35 @@ import type { NoteRenderer } from '../templates/index.ts';
 import { BODY_LIMIT_BYTES } from './errors.ts';
 import { mediaType } from './api.ts';
 import { staticRoutes } from './static.ts';
-import { answerStep, awaitingFollowUp, cancelFollowUp, contextFor, emptyState, readState, startFollowUp, statuses, type FlowState } from '../views/flow.ts';
-import { confirmPaste, fingerprint, intakeOf, pasteView, withChosenSample, type RawIntake } from '../views/paste.ts';
+import {
+  answerStep,
+  awaitingFollowUp,
+  cancelFollowUp,
+  contextFor,
+  emptyState,
+  readState,
+  startFollowUp,
+  statuses,
+  type FlowState,
+} from '../views/flow.ts';
+import {
+  confirmPaste,
+  fingerprint,
+  intakeOf,
+  pasteView,
+  withChosenSample,
+  type RawIntake,
+} from '../views/paste.ts';
 import { caseFromFhir, parsePaste, MAX_PASTE_CHARS } from './intake/index.ts';
-import { flowView, markdownPreview, renderFragment, renderPage, renderPreview, renderProblem, type Presentation } from '../views/render.ts';
+import {
+  flowView,
+  markdownPreview,
+  renderFragment,
+  renderPage,
+  renderPreview,
+  renderProblem,
+  type Presentation,
+} from '../views/render.ts';
 import { STEPS, isStepId, summary, type FormValues, type StepId } from '../views/steps.ts';
 
 export interface PageDeps {
@@ -22,19 +47,26 @@ const FORM_TYPES = new Set(['application/x-www-form-urlencoded', 'multipart/form
 
 const isHtmx = (c: Context) => c.req.header('hx-request') === 'true';
 
-const isObject = (x: unknown): x is Record<string, unknown> => x !== null && typeof x === 'object' && !Array.isArray(x);
+const isObject = (x: unknown): x is Record<string, unknown> =>
+  x !== null && typeof x === 'object' && !Array.isArray(x);
 const isResource = (x: unknown) => isObject(x) && typeof x.resourceType === 'string';
 
 /** Which intake reads the text: JSON with a resourceType goes to the FHIR intake, any other text to the paste intake. */
 export function readIntake(text: string): RawIntake {
   if (text.trim() === '') return { kind: 'empty' };
-  if (text.length > MAX_PASTE_CHARS) return { kind: 'too-long', limit: MAX_PASTE_CHARS, length: text.length };
+  if (text.length > MAX_PASTE_CHARS)
+    return { kind: 'too-long', limit: MAX_PASTE_CHARS, length: text.length };
   const trimmed = text.trim();
   if (trimmed.startsWith('{') || trimmed.startsWith('[')) {
     let json: unknown;
-    try { json = JSON.parse(trimmed); } catch { json = undefined; }
+    try {
+      json = JSON.parse(trimmed);
+    } catch {
+      json = undefined;
+    }
     if (json !== undefined) {
-      if (isResource(json) || (Array.isArray(json) && json.length > 0 && json.every(isResource))) return { kind: 'fhir', result: caseFromFhir(json) };
+      if (isResource(json) || (Array.isArray(json) && json.length > 0 && json.every(isResource)))
+        return { kind: 'fhir', result: caseFromFhir(json) };
       return { kind: 'json-not-fhir' };
     }
   }
@@ -73,15 +105,24 @@ function afterAnswer(after: FlowState, id: StepId, reopened: StepId[], deps: Pag
   const next = list.find((s) => s.status === 'todo');
   const from = list.findIndex((s) => s.id === id);
   const to = next ? list.findIndex((s) => s.id === next.id) : list.length;
-  for (const s of list.slice(from + 1, to)) if (s.status === 'skipped' && s.reason) parts.push(s.reason);
-  if (reopened.length) parts.push(`Check ${reopened.map((s) => STEPS[s].title.toLowerCase()).join(' and ')} again: the question changed.`);
-  parts.push(next ? `Next: ${STEPS[next.id].title.toLowerCase()}.` : 'The draft note is ready below.');
+  for (const s of list.slice(from + 1, to))
+    if (s.status === 'skipped' && s.reason) parts.push(s.reason);
+  if (reopened.length)
+    parts.push(
+      `Check ${reopened.map((s) => STEPS[s].title.toLowerCase()).join(' and ')} again: the question changed.`,
+    );
+  parts.push(
+    next ? `Next: ${STEPS[next.id].title.toLowerCase()}.` : 'The draft note is ready below.',
+  );
   return parts.join(' ');
 }
 
 export function pageRoutes(deps: PageDeps): Hono {
   const page = new Hono();
-  const limit = bodyLimit({ maxSize: BODY_LIMIT_BYTES, onError: (c) => problem(c, 413, `The form is larger than ${BODY_LIMIT_BYTES / 1024} KiB.`) });
+  const limit = bodyLimit({
+    maxSize: BODY_LIMIT_BYTES,
+    onError: (c) => problem(c, 413, `The form is larger than ${BODY_LIMIT_BYTES / 1024} KiB.`),
+  });
 
   const send = (c: Context, state: FlowState, p: Presentation, status: 200 | 422 = 200) => {
     const view = flowView(state, deps, p);
@@ -89,10 +130,13 @@ export function pageRoutes(deps: PageDeps): Hono {
   };
 
   /** The form and the state it carried, or the response that explains why not. */
-  const withState = async (c: Context): Promise<{ form: FormValues; state: FlowState } | Response> => {
+  const withState = async (
+    c: Context,
+  ): Promise<{ form: FormValues; state: FlowState } | Response> => {
     const form = await readForm(c);
     if (!form) return problem(c, 415, 'Send the form as an ordinary form post.');
-    if (form === 'malformed') return problem(c, 400, 'The form could not be read: send it again from the page.');
+    if (form === 'malformed')
+      return problem(c, 400, 'The form could not be read: send it again from the page.');
     const read = readState(form);
     if (!read.ok) return problem(c, 400, read.message);
     return { form, state: read.state };
@@ -102,7 +146,8 @@ export function pageRoutes(deps: PageDeps): Hono {
 
   page.get('/', (c) => send(c, emptyState(), { announce: '' }));
   // after a post without script the address bar shows the post's path: a reload or a bookmark starts afresh
-  for (const path of ['/step', '/open', '/preview', '/paste', '/followup']) page.get(path, (c) => c.redirect('/', 303));
+  for (const path of ['/step', '/open', '/preview', '/paste', '/followup'])
+    page.get(path, (c) => c.redirect('/', 303));
 
   page.post('/step', limit, async (c) => {
     const got = await withState(c);
@@ -116,7 +161,10 @@ export function pageRoutes(deps: PageDeps): Hono {
       const announce = `${n === 1 ? 'One answer needs' : `${n} answers need`} a change: ${outcome.invalid.errors[0]!.message}.`;
       return send(c, state, { invalid: outcome.invalid, announce }, 422);
     }
-    return send(c, outcome.state, { announce: afterAnswer(outcome.state, id, outcome.reopened, deps), reopened: outcome.reopened });
+    return send(c, outcome.state, {
+      announce: afterAnswer(outcome.state, id, outcome.reopened, deps),
+      reopened: outcome.reopened,
+    });
   });
 
   // reopen an answered step, or show the same flow in another note format
@@ -127,14 +175,27 @@ export function pageRoutes(deps: PageDeps): Hono {
     const open = form.open ?? '';
     if (open === 'cancel-followup') {
       const restored = cancelFollowUp(state);
-      if (restored) return send(c, restored, { announce: 'Follow-up cancelled: the gas is the current gas again.' });
+      if (restored)
+        return send(c, restored, {
+          announce: 'Follow-up cancelled: the gas is the current gas again.',
+        });
     }
     if (isStepId(open)) {
-      const status = statuses(state, contextFor(state, deps.interpretOptions)).find((s) => s.id === open)!;
-      const canOpen = status.status === 'done' || (status.status === 'skipped' && open === 'timing');
-      if (canOpen) return send(c, state, { open, announce: `Changing ${STEPS[open].title.toLowerCase()}.` });
+      const status = statuses(state, contextFor(state, deps.interpretOptions)).find(
+        (s) => s.id === open,
+      )!;
+      const canOpen =
+        status.status === 'done' || (status.status === 'skipped' && open === 'timing');
+      if (canOpen)
+        return send(c, state, { open, announce: `Changing ${STEPS[open].title.toLowerCase()}.` });
     }
-    return send(c, state, { keepFocus: true, announce: state.format === 'markdown' ? 'The draft is now in Markdown.' : 'The draft is now plain text.' });
+    return send(c, state, {
+      keepFocus: true,
+      announce:
+        state.format === 'markdown'
+          ? 'The draft is now in Markdown.'
+          : 'The draft is now plain text.',
+    });
   });
 
   // the Markdown preview of the clinician's own text: the fragment for htmx, the whole page otherwise
@@ -144,18 +205,39 @@ export function pageRoutes(deps: PageDeps): Hono {
     const { form, state } = got;
     const note = form.note ?? '';
     if (isHtmx(c)) return c.html(renderPreview(markdownPreview(note)), 200, NO_STORE);
-    return send(c, { ...state, format: 'markdown' }, { edited: { note, handover: form.handover ?? '' }, keepFocus: true, announce: 'Preview updated.' });
+    return send(
+      c,
+      { ...state, format: 'markdown' },
+      {
+        edited: { note, handover: form.handover ?? '' },
+        keepFocus: true,
+        announce: 'Preview updated.',
+      },
+    );
   });
 
   // a paste on the first step: read it and show what was read; on confirm, fill the case and go on. A paste may be
   // a whole printout or FHIR payload (up to MAX_PASTE_CHARS characters); the paste forms post multipart/form-data,
   // which carries the text as it is (URL-encoding would triple JSON), so it fits the same 64 KiB as any body
-  const pasteLimit = bodyLimit({ maxSize: BODY_LIMIT_BYTES, onError: (c) => problem(c, 413, `The pasted text is too long: paste the result lines only (at most ${MAX_PASTE_CHARS} characters).`) });
+  const pasteLimit = bodyLimit({
+    maxSize: BODY_LIMIT_BYTES,
+    onError: (c) =>
+      problem(
+        c,
+        413,
+        `The pasted text is too long: paste the result lines only (at most ${MAX_PASTE_CHARS} characters).`,
+      ),
+  });
   page.post('/paste', pasteLimit, async (c) => {
     const got = await withState(c);
     if (got instanceof Response) return got;
     const { form, state } = got;
-    if ('gas' in state.answers || awaitingFollowUp(state.answers)) return problem(c, 400, 'A paste starts a new case: this case already holds a gas. Start a new case to paste another.');
+    if ('gas' in state.answers || awaitingFollowUp(state.answers))
+      return problem(
+        c,
+        400,
+        'A paste starts a new case: this case already holds a gas. Start a new case to paste another.',
+      );
     const action = form.action ?? 'read';
     if (action === 'cancel') return send(c, state, { announce: 'Enter the values step by step.' });
     const text = form.paste ?? '';
@@ -163,13 +245,28 @@ export function pageRoutes(deps: PageDeps): Hono {
     if (action === 'confirm') {
       // confirm only what was shown: a text changed since it was read is read again and shown first
       if (form.pasteRead !== fingerprint(text)) {
-        const view = pasteView(intake, null, [], 'The text changed after it was read: here is what was read from it now. Check it, then use it.');
-        return send(c, state, { open: 'sample', paste: view, announce: 'The text changed: check what was read from it now.' });
+        const view = pasteView(
+          intake,
+          null,
+          [],
+          'The text changed after it was read: here is what was read from it now. Check it, then use it.',
+        );
+        return send(c, state, {
+          open: 'sample',
+          paste: view,
+          announce: 'The text changed: check what was read from it now.',
+        });
       }
       const outcome = confirmPaste(state, intake, form, deps.interpretOptions);
-      if (outcome.ok) return send(c, outcome.state, { announce: outcome.announce, pasted: outcome.remarks });
+      if (outcome.ok)
+        return send(c, outcome.state, { announce: outcome.announce, pasted: outcome.remarks });
       const view = pasteView(intake, form, outcome.errors);
-      return send(c, state, { open: 'sample', paste: view, announce: `Not used yet: ${outcome.errors[0]!.message}` }, 422);
+      return send(
+        c,
+        state,
+        { open: 'sample', paste: view, announce: `Not used yet: ${outcome.errors[0]!.message}` },
+        422,
+      );
     }
     const view = pasteView(intake, null);
     const n = intake.read.length;
@@ -188,10 +285,17 @@ export function pageRoutes(deps: PageDeps): Hono {
     const outcome = startFollowUp(state, typed);
     if (!outcome.ok) {
       if (!('gas' in state.answers)) return problem(c, 400, outcome.message);
-      return send(c, state, { followUp: { error: outcome.message, typed }, announce: outcome.message }, 422);
+      return send(
+        c,
+        state,
+        { followUp: { error: outcome.message, typed }, announce: outcome.message },
+        422,
+      );
     }
     const what = [outcome.moved.takenAt, outcome.moved.label].filter(Boolean).join(', ');
-    return send(c, outcome.state, { announce: `The gas${what ? ` (${String(what)})` : ''} is now the earlier gas. Enter the follow-up gas.` });
+    return send(c, outcome.state, {
+      announce: `The gas${what ? ` (${String(what)})` : ''} is now the earlier gas. Enter the follow-up gas.`,
+    });
   });
 
   return page;

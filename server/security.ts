@@ -4,20 +4,36 @@ import { secureHeaders } from 'hono/secure-headers';
 import { csrf } from 'hono/csrf';
 
 /** A strict Content-Security-Policy (no inline script or style, no eval), no framing, no referrer, no sniffing. */
-export const securityHeaders = (): MiddlewareHandler => secureHeaders({
-  contentSecurityPolicy: {
-    defaultSrc: ["'self'"], scriptSrc: ["'self'"], styleSrc: ["'self'"], imgSrc: ["'self'"], connectSrc: ["'self'"],
-    fontSrc: ["'self'"], formAction: ["'self'"], frameAncestors: ["'none'"], baseUri: ["'none'"], objectSrc: ["'none'"],
-  },
-  xFrameOptions: 'DENY',
-  referrerPolicy: 'no-referrer',
-  xContentTypeOptions: 'nosniff',
-  crossOriginResourcePolicy: 'same-origin',
-  permissionsPolicy: {
-    camera: [], microphone: [], geolocation: [], payment: [], usb: [], serial: [], bluetooth: [],
-    displayCapture: [], fullscreen: [],
-  },
-});
+export const securityHeaders = (): MiddlewareHandler =>
+  secureHeaders({
+    contentSecurityPolicy: {
+      defaultSrc: ["'self'"],
+      scriptSrc: ["'self'"],
+      styleSrc: ["'self'"],
+      imgSrc: ["'self'"],
+      connectSrc: ["'self'"],
+      fontSrc: ["'self'"],
+      formAction: ["'self'"],
+      frameAncestors: ["'none'"],
+      baseUri: ["'none'"],
+      objectSrc: ["'none'"],
+    },
+    xFrameOptions: 'DENY',
+    referrerPolicy: 'no-referrer',
+    xContentTypeOptions: 'nosniff',
+    crossOriginResourcePolicy: 'same-origin',
+    permissionsPolicy: {
+      camera: [],
+      microphone: [],
+      geolocation: [],
+      payment: [],
+      usb: [],
+      serial: [],
+      bluetooth: [],
+      displayCapture: [],
+      fullscreen: [],
+    },
+  });
 
 /**
  * Form posts must come from this page: Hono's CSRF check of Sec-Fetch-Site and Origin. A browser always sends
@@ -31,7 +47,8 @@ export function originCheck(allowedOrigins: readonly string[] = []): MiddlewareH
     secFetchSite: 'same-origin',
   });
   return async (c, next) => {
-    if (c.req.header('origin') === undefined && c.req.header('sec-fetch-site') === undefined) return next();
+    if (c.req.header('origin') === undefined && c.req.header('sec-fetch-site') === undefined)
+      return next();
     return check(c, next);
   };
 }

@@ -33,13 +33,28 @@ function copyAssets(dir) {
   }
 }
 
-const sourceTime = Math.max(...SOURCES.map((d) => newest(join(root, d))), statSync(join(root, 'package-lock.json')).mtimeMs);
+const sourceTime = Math.max(
+  ...SOURCES.map((d) => newest(join(root, d))),
+  statSync(join(root, 'package-lock.json')).mtimeMs,
+);
 if (!existsSync(stamp) || statSync(stamp).mtimeMs < sourceTime) {
   const started = performance.now();
-  execFileSync(process.execPath, [join(root, 'node_modules', 'typescript', 'bin', 'tsc'), '-p', join(root, 'tsconfig.build.json')], { stdio: 'inherit' });
+  execFileSync(
+    process.execPath,
+    [
+      join(root, 'node_modules', 'typescript', 'bin', 'tsc'),
+      '-p',
+      join(root, 'tsconfig.build.json'),
+    ],
+    { stdio: 'inherit' },
+  );
   for (const dir of ['templates', 'views']) copyAssets(join(root, dir));
   writeFileSync(stamp, new Date().toISOString() + '\n');
   console.log(`Gasline: compiled in ${(performance.now() - started).toFixed(0)} ms`);
 }
 
-await import(pathToFileURL(join(dist, 'server', process.env.GASLINE_ENTRY === 'cluster' ? 'cluster.js' : 'main.js')).href);
+await import(
+  pathToFileURL(
+    join(dist, 'server', process.env.GASLINE_ENTRY === 'cluster' ? 'cluster.js' : 'main.js'),
+  ).href
+);

@@ -29,12 +29,19 @@ export class Unsupported extends Error {}
 
 const runtime = nunjucks.runtime as Runtime;
 const parse = (source: string, extensions: unknown[], opts: unknown): AnyNode =>
-  (nunjucks as unknown as { parser: { parse(src: string, ext: unknown[], opts: unknown): AnyNode } }).parser.parse(source, extensions, opts);
+  (
+    nunjucks as unknown as {
+      parser: { parse(src: string, ext: unknown[], opts: unknown): AnyNode };
+    }
+  ).parser.parse(source, extensions, opts);
 
 /** Compile-time scope: the names a block can see as JavaScript variables. */
 class Block {
   readonly vars = new Map<string, string>();
-  constructor(readonly parent: Block | null, readonly kind: 'root' | 'for' | 'macro' | 'caller' | 'capture') {}
+  constructor(
+    readonly parent: Block | null,
+    readonly kind: 'root' | 'for' | 'macro' | 'caller' | 'capture',
+  ) {}
   lookup(name: string): string | null {
     for (let b: Block | null = this; b; b = b.parent) {
       const id = b.vars.get(name);
@@ -65,12 +72,23 @@ class Compiler {
   private readonly testIds = new Map<string, string>();
   private readonly templateIds = new Map<string, string>();
 
-  constructor(private readonly name: string, private readonly path: string, private readonly throwOnUndefined: boolean, private readonly autoescape: boolean) {}
+  constructor(
+    private readonly name: string,
+    private readonly path: string,
+    private readonly throwOnUndefined: boolean,
+    private readonly autoescape: boolean,
+  ) {}
 
-  private id(prefix = 't') { return `${prefix}_${++this.lastId}`; }
-  private emit(line: string) { this.code.push(line); }
+  private id(prefix = 't') {
+    return `${prefix}_${++this.lastId}`;
+  }
+  private emit(line: string) {
+    this.code.push(line);
+  }
   private fail(node: AnyNode, what: string): never {
-    throw new Unsupported(`${this.name} line ${node.lineno + 1}: ${what} is not handled by the template compiler`);
+    throw new Unsupported(
+      `${this.name} line ${node.lineno + 1}: ${what} is not handled by the template compiler`,
+    );
   }
 
   compileRoot(root: AnyNode): { body: string; exportNames: string[] } {
@@ -93,18 +111,31 @@ class Compiler {
 
   private statement(node: AnyNode, block: Block): void {
     switch (node.typename) {
-      case 'NodeList': return this.statements(node.children, block);
-      case 'Output': return this.output(node, block);
-      case 'TemplateData': if (node.value) this.emit(`out += ${jsString(String(node.value))};`); return;
-      case 'If': return this.ifStatement(node, block);
-      case 'For': return this.forStatement(node, block);
-      case 'Set': return this.setStatement(node, block);
-      case 'Macro': return this.macroStatement(node, block);
-      case 'Import': return this.importStatement(node, block);
-      case 'FromImport': return this.fromImportStatement(node, block);
-      case 'Include': return this.includeStatement(node, block);
-      case 'Switch': return this.switchStatement(node, block);
-      default: return this.fail(node, `the ${node.typename} tag`);
+      case 'NodeList':
+        return this.statements(node.children, block);
+      case 'Output':
+        return this.output(node, block);
+      case 'TemplateData':
+        if (node.value) this.emit(`out += ${jsString(String(node.value))};`);
+        return;
+      case 'If':
+        return this.ifStatement(node, block);
+      case 'For':
+        return this.forStatement(node, block);
+      case 'Set':
+        return this.setStatement(node, block);
+      case 'Macro':
+        return this.macroStatement(node, block);
+      case 'Import':
+        return this.importStatement(node, block);
+      case 'FromImport':
+        return this.fromImportStatement(node, block);
+      case 'Include':
+        return this.includeStatement(node, block);
+      case 'Switch':
+        return this.switchStatement(node, block);
+      default:
+        return this.fail(node, `the ${node.typename} tag`);
     }
   }
 
@@ -114,9 +145,15 @@ class Compiler {
         if (child.value) this.emit(`out += ${jsString(String(child.value))};`);
       } else {
         const value = this.expr(child, block);
-        const checked = this.throwOnUndefined ? `rt.defined(${value}, ${jsString(this.name)}, ${node.lineno}, ${node.colno})` : value;
+        const checked = this.throwOnUndefined
+          ? `rt.defined(${value}, ${jsString(this.name)}, ${node.lineno}, ${node.colno})`
+          : value;
         // unescaped and checked, the value is printed as it is; otherwise nunjucks' own rule (escaping, '' for nothing)
-        this.emit(this.throwOnUndefined && !this.autoescape ? `out += ${checked};` : `out += rt.suppressValue(${checked}, ${this.autoescape});`);
+        this.emit(
+          this.throwOnUndefined && !this.autoescape
+            ? `out += ${checked};`
+            : `out += rt.suppressValue(${checked}, ${this.autoescape});`,
+        );
       }
     }
   }
@@ -148,12 +185,18 @@ class Compiler {
   /** A loop: its own block; loop.index and friends as nunjucks gives them. */
   private forStatement(node: AnyNode, outer: Block) {
     const block = new Block(outer, 'for');
-    const arr = this.id(); const i = this.id(); const len = this.id(); const loop = this.id();
+    const arr = this.id();
+    const i = this.id();
+    const len = this.id();
+    const loop = this.id();
     block.vars.set('loop', loop);
     this.emit(`var ${arr} = ${this.expr(node.arr, outer)}; var ${len} = 0;`);
     this.emit(`if(${arr}) {`);
     this.emit(`${arr} = rt.fromIterator(${arr});`);
-    const bindLoop = () => this.emit(`var ${loop} = {index: ${i} + 1, index0: ${i}, revindex: ${len} - ${i}, revindex0: ${len} - ${i} - 1, first: ${i} === 0, last: ${i} === ${len} - 1, length: ${len}};`);
+    const bindLoop = () =>
+      this.emit(
+        `var ${loop} = {index: ${i} + 1, index0: ${i}, revindex: ${len} - ${i}, revindex0: ${len} - ${i} - 1, first: ${i} === 0, last: ${i} === ${len} - 1, length: ${len}};`,
+      );
     if (node.name.typename === 'Array') {
       const names = (node.name.children as AnyNode[]).map((child) => child.value as string);
       const ids = names.map(() => this.id());
@@ -210,8 +253,14 @@ class Compiler {
         continue;
       }
       const existing = block.lookup(name);
-      if (existing) { this.emit(`${existing} = ${tmp};`); continue; }
-      if (this.reachesRoot(block) && this.rootSets.has(name)) { this.emit(`s[${jsString(name)}] = ${tmp};`); continue; }
+      if (existing) {
+        this.emit(`${existing} = ${tmp};`);
+        continue;
+      }
+      if (this.reachesRoot(block) && this.rootSets.has(name)) {
+        this.emit(`s[${jsString(name)}] = ${tmp};`);
+        continue;
+      }
       const id = this.id();
       block.vars.set(name, id);
       this.emit(`var ${id} = ${tmp};`);
@@ -233,27 +282,41 @@ class Compiler {
     let kwargs: AnyNode | null = null;
     const list = node.args.children as AnyNode[];
     list.forEach((arg, i) => {
-      if (i === list.length - 1 && (arg.typename === 'Dict' || arg.typename === 'KeywordArgs')) kwargs = arg;
+      if (i === list.length - 1 && (arg.typename === 'Dict' || arg.typename === 'KeywordArgs'))
+        kwargs = arg;
       else if (arg.typename === 'Symbol') args.push(arg);
       else this.fail(arg, 'a macro argument that is not a name');
     });
     const inner = new Block(block, node.typename === 'Caller' ? 'caller' : 'macro');
-    const params = args.map((a) => { const id = `l_${a.value}_${++this.lastId}`; inner.vars.set(a.value, id); return id; });
-    const kwNames = ((kwargs as AnyNode | null)?.children ?? []).map((p: AnyNode) => p.key.value as string);
+    const params = args.map((a) => {
+      const id = `l_${a.value}_${++this.lastId}`;
+      inner.vars.set(a.value, id);
+      return id;
+    });
+    const kwNames = ((kwargs as AnyNode | null)?.children ?? []).map(
+      (p: AnyNode) => p.key.value as string,
+    );
     const kw = this.id('kw');
     const callerId = this.id();
     // a caller passed to this call; otherwise whatever `caller` means where the macro was written
-    const outerCaller = node.typename === 'Caller' ? (block.lookup('caller') ?? 's["caller"]') : 's["caller"]';
+    const outerCaller =
+      node.typename === 'Caller' ? (block.lookup('caller') ?? 's["caller"]') : 's["caller"]';
     const lines: string[] = [];
     const saved = this.code;
     this.code = lines;
-    lines.push(`rt.makeMacro([${args.map((a) => jsString(a.value)).join(', ')}], [${kwNames.map(jsString).join(', ')}], function (${[...params, kw].join(', ')}) {`);
+    lines.push(
+      `rt.makeMacro([${args.map((a) => jsString(a.value)).join(', ')}], [${kwNames.map(jsString).join(', ')}], function (${[...params, kw].join(', ')}) {`,
+    );
     lines.push(`${kw} = ${kw} || {};`);
-    lines.push(`var ${callerId} = Object.prototype.hasOwnProperty.call(${kw}, "caller") ? ${kw}.caller : ${outerCaller};`);
+    lines.push(
+      `var ${callerId} = Object.prototype.hasOwnProperty.call(${kw}, "caller") ? ${kw}.caller : ${outerCaller};`,
+    );
     inner.vars.set('caller', callerId);
     for (const pair of ((kwargs as AnyNode | null)?.children ?? []) as AnyNode[]) {
       const id = `l_${pair.key.value}_${++this.lastId}`;
-      lines.push(`var ${id} = Object.prototype.hasOwnProperty.call(${kw}, ${jsString(pair.key.value)}) ? ${kw}[${jsString(pair.key.value)}] : ${this.expr(pair.value, inner)};`);
+      lines.push(
+        `var ${id} = Object.prototype.hasOwnProperty.call(${kw}, ${jsString(pair.key.value)}) ? ${kw}[${jsString(pair.key.value)}] : ${this.expr(pair.value, inner)};`,
+      );
       inner.vars.set(pair.key.value, id);
     }
     lines.push('var out = "";');
@@ -290,7 +353,10 @@ class Compiler {
     if (node.template.typename === 'Literal' && typeof node.template.value === 'string') {
       const key = node.template.value as string;
       let id = this.templateIds.get(key);
-      if (!id) { id = this.id('tpl'); this.templateIds.set(key, id); }
+      if (!id) {
+        id = this.id('tpl');
+        this.templateIds.set(key, id);
+      }
       return `(${id} || (${id} = rt.template(${jsString(key)}, ${jsString(this.path)})))`;
     }
     return `rt.template(${this.expr(node.template, block)}, ${jsString(this.path)})`;
@@ -298,7 +364,11 @@ class Compiler {
 
   private importStatement(node: AnyNode, block: Block) {
     const scope = node.withContext ? this.childScope(block) : 'rt.globalScope()';
-    this.bindName(node.target.value, `rt.exported(${this.templateRef(node, block)}, ${scope})`, block);
+    this.bindName(
+      node.target.value,
+      `rt.exported(${this.templateRef(node, block)}, ${scope})`,
+      block,
+    );
   }
 
   private fromImportStatement(node: AnyNode, block: Block) {
@@ -306,21 +376,31 @@ class Compiler {
     const exported = this.id();
     this.emit(`var ${exported} = rt.exported(${this.templateRef(node, block)}, ${scope});`);
     for (const nameNode of node.names.children as AnyNode[]) {
-      const [name, alias] = nameNode.typename === 'Pair' ? [nameNode.key.value, nameNode.value.value] : [nameNode.value, nameNode.value];
-      this.emit(`if(!Object.prototype.hasOwnProperty.call(${exported}, ${jsString(name)})) throw new Error(${jsString(`cannot import '${name}'`)});`);
+      const [name, alias] =
+        nameNode.typename === 'Pair'
+          ? [nameNode.key.value, nameNode.value.value]
+          : [nameNode.value, nameNode.value];
+      this.emit(
+        `if(!Object.prototype.hasOwnProperty.call(${exported}, ${jsString(name)})) throw new Error(${jsString(`cannot import '${name}'`)});`,
+      );
       this.bindName(alias, `${exported}[${jsString(name)}]`, block);
     }
   }
 
   private bindName(name: string, value: string, block: Block) {
-    if (block.topLevel) { this.emit(`s[${jsString(name)}] = ${value};`); return; }
+    if (block.topLevel) {
+      this.emit(`s[${jsString(name)}] = ${value};`);
+      return;
+    }
     const id = this.id();
     block.vars.set(name, id);
     this.emit(`var ${id} = ${value};`);
   }
 
   private includeStatement(node: AnyNode, block: Block) {
-    const ref = node.ignoreMissing ? `rt.templateOrNull(${node.template.typename === 'Literal' ? jsString(node.template.value) : this.expr(node.template, block)}, ${jsString(this.path)})` : this.templateRef(node, block);
+    const ref = node.ignoreMissing
+      ? `rt.templateOrNull(${node.template.typename === 'Literal' ? jsString(node.template.value) : this.expr(node.template, block)}, ${jsString(this.path)})`
+      : this.templateRef(node, block);
     const t = this.id();
     this.emit(`var ${t} = ${ref};`);
     this.emit(`if (${t}) out += ${t}.render(${this.childScope(block)});`);
@@ -330,39 +410,73 @@ class Compiler {
 
   private expr(node: AnyNode, block: Block): string {
     switch (node.typename) {
-      case 'Literal': return this.literal(node.value);
-      case 'Symbol': return block.lookup(node.value) ?? `s[${jsString(node.value)}]`;
-      case 'Group': return `(${this.list(node.children, block)})`;
-      case 'Array': return `[${this.list(node.children, block)}]`;
-      case 'Dict': return `{${this.list(node.children, block)}}`;
+      case 'Literal':
+        return this.literal(node.value);
+      case 'Symbol':
+        return block.lookup(node.value) ?? `s[${jsString(node.value)}]`;
+      case 'Group':
+        return `(${this.list(node.children, block)})`;
+      case 'Array':
+        return `[${this.list(node.children, block)}]`;
+      case 'Dict':
+        return `{${this.list(node.children, block)}}`;
       case 'Pair': {
         const key = node.key;
-        if (key.typename !== 'Symbol' && !(key.typename === 'Literal' && typeof key.value === 'string')) this.fail(node, 'a dictionary key that is not a string or name');
+        if (
+          key.typename !== 'Symbol' &&
+          !(key.typename === 'Literal' && typeof key.value === 'string')
+        )
+          this.fail(node, 'a dictionary key that is not a string or name');
         return `${jsString(String(key.value))}: ${this.expr(node.value, block)}`;
       }
-      case 'NodeList': return this.list(node.children, block);
-      case 'InlineIf': return `(${this.expr(node.cond, block)}?${this.expr(node.body, block)}:${node.else_ !== null ? this.expr(node.else_, block) : '""'})`;
-      case 'In': return `rt.inOperator(${this.expr(node.left, block)},${this.expr(node.right, block)})`;
+      case 'NodeList':
+        return this.list(node.children, block);
+      case 'InlineIf':
+        return `(${this.expr(node.cond, block)}?${this.expr(node.body, block)}:${node.else_ !== null ? this.expr(node.else_, block) : '""'})`;
+      case 'In':
+        return `rt.inOperator(${this.expr(node.left, block)},${this.expr(node.right, block)})`;
       case 'Is': {
         const test = node.right.name ? node.right.name.value : node.right.value;
         const args = node.right.args ? `,${this.expr(node.right.args, block)}` : '';
         return `${this.testId(test)}.call(rt.filterContext, ${this.expr(node.left, block)}${args}) === true`;
       }
-      case 'Or': return `${this.expr(node.left, block)} || ${this.expr(node.right, block)}`;
-      case 'And': return `${this.expr(node.left, block)} && ${this.expr(node.right, block)}`;
-      case 'Add': return `${this.expr(node.left, block)} + ${this.expr(node.right, block)}`;
-      case 'Concat': return `${this.expr(node.left, block)} + "" + ${this.expr(node.right, block)}`;
-      case 'Sub': return `${this.expr(node.left, block)} - ${this.expr(node.right, block)}`;
-      case 'Mul': return `${this.expr(node.left, block)} * ${this.expr(node.right, block)}`;
-      case 'Div': return `${this.expr(node.left, block)} / ${this.expr(node.right, block)}`;
-      case 'Mod': return `${this.expr(node.left, block)} % ${this.expr(node.right, block)}`;
-      case 'FloorDiv': return `Math.floor(${this.expr(node.left, block)} / ${this.expr(node.right, block)})`;
-      case 'Pow': return `Math.pow(${this.expr(node.left, block)}, ${this.expr(node.right, block)})`;
-      case 'Not': return `!${this.expr(node.target, block)}`;
-      case 'Neg': return `-${this.expr(node.target, block)}`;
-      case 'Pos': return `+${this.expr(node.target, block)}`;
+      case 'Or':
+        return `${this.expr(node.left, block)} || ${this.expr(node.right, block)}`;
+      case 'And':
+        return `${this.expr(node.left, block)} && ${this.expr(node.right, block)}`;
+      case 'Add':
+        return `${this.expr(node.left, block)} + ${this.expr(node.right, block)}`;
+      case 'Concat':
+        return `${this.expr(node.left, block)} + "" + ${this.expr(node.right, block)}`;
+      case 'Sub':
+        return `${this.expr(node.left, block)} - ${this.expr(node.right, block)}`;
+      case 'Mul':
+        return `${this.expr(node.left, block)} * ${this.expr(node.right, block)}`;
+      case 'Div':
+        return `${this.expr(node.left, block)} / ${this.expr(node.right, block)}`;
+      case 'Mod':
+        return `${this.expr(node.left, block)} % ${this.expr(node.right, block)}`;
+      case 'FloorDiv':
+        return `Math.floor(${this.expr(node.left, block)} / ${this.expr(node.right, block)})`;
+      case 'Pow':
+        return `Math.pow(${this.expr(node.left, block)}, ${this.expr(node.right, block)})`;
+      case 'Not':
+        return `!${this.expr(node.target, block)}`;
+      case 'Neg':
+        return `-${this.expr(node.target, block)}`;
+      case 'Pos':
+        return `+${this.expr(node.target, block)}`;
       case 'Compare': {
-        const ops: Record<string, string> = { '==': '==', '===': '===', '!=': '!=', '!==': '!==', '<': '<', '>': '>', '<=': '<=', '>=': '>=' };
+        const ops: Record<string, string> = {
+          '==': '==',
+          '===': '===',
+          '!=': '!=',
+          '!==': '!==',
+          '<': '<',
+          '>': '>',
+          '<=': '<=',
+          '>=': '>=',
+        };
         let out = this.expr(node.expr, block);
         for (const op of node.ops as AnyNode[]) {
           const js = ops[op.type];
@@ -375,20 +489,27 @@ class Compiler {
         // a name after the dot: read it directly, so each place keeps its own fast property access;
         // same result as nunjucks' memberLookup (nothing from nothing, methods bound to their object)
         const key = node.val;
-        if (key.typename === 'Literal' && typeof key.value === 'string' && /^[A-Za-z_$][\w$]*$/.test(key.value)) {
+        if (
+          key.typename === 'Literal' &&
+          typeof key.value === 'string' &&
+          /^[A-Za-z_$][\w$]*$/.test(key.value)
+        ) {
           const t = this.temp();
           const target = this.expr(node.target, block);
           return `((${t} = ${target}) === undefined || ${t} === null ? undefined : typeof ${t}.${key.value} === 'function' ? rt.memberLookup(${t}, ${jsString(key.value)}) : ${t}.${key.value})`;
         }
         return `rt.memberLookup((${this.expr(node.target, block)}),${this.expr(key, block)})`;
       }
-      case 'FunCall': return `rt.callWrap(${this.expr(node.name, block)}, ${jsString(nodeName(node.name))}, rt.filterContext, [${this.list(node.args.children, block)}])`;
+      case 'FunCall':
+        return `rt.callWrap(${this.expr(node.name, block)}, ${jsString(nodeName(node.name))}, rt.filterContext, [${this.list(node.args.children, block)}])`;
       case 'Filter': {
         if (node.name.typename !== 'Symbol') this.fail(node, 'a filter that is not a name');
         return `${this.filterId(node.name.value)}.call(rt.filterContext, ${this.list(node.args.children, block)})`;
       }
-      case 'KeywordArgs': return `rt.makeKeywordArgs({${this.list(node.children, block)}})`;
-      case 'Caller': return this.macroFunction(node, block);
+      case 'KeywordArgs':
+        return `rt.makeKeywordArgs({${this.list(node.children, block)}})`;
+      case 'Caller':
+        return this.macroFunction(node, block);
       case 'Capture': {
         const inner = new Block(block, 'capture');
         const saved = this.code;
@@ -399,7 +520,8 @@ class Compiler {
         this.code = saved;
         return text;
       }
-      default: return this.fail(node, `the ${node.typename} expression`);
+      default:
+        return this.fail(node, `the ${node.typename} expression`);
     }
   }
 
@@ -422,13 +544,19 @@ class Compiler {
 
   private filterId(name: string): string {
     let id = this.filterIds.get(name);
-    if (!id) { id = this.id('filter'); this.filterIds.set(name, id); }
+    if (!id) {
+      id = this.id('filter');
+      this.filterIds.set(name, id);
+    }
     return id;
   }
 
   private testId(name: string): string {
     let id = this.testIds.get(name);
-    if (!id) { id = this.id('test'); this.testIds.set(name, id); }
+    if (!id) {
+      id = this.id('test');
+      this.testIds.set(name, id);
+    }
     return id;
   }
 }
@@ -436,11 +564,16 @@ class Compiler {
 /** How nunjucks names a callee in its "Unable to call" message. */
 function nodeName(node: AnyNode): string {
   switch (node.typename) {
-    case 'Symbol': return node.value;
-    case 'FunCall': return `the return value of (${nodeName(node.name)})`;
-    case 'LookupVal': return `${nodeName(node.target)}["${nodeName(node.val)}"]`;
-    case 'Literal': return String(node.value);
-    default: return '--expression--';
+    case 'Symbol':
+      return node.value;
+    case 'FunCall':
+      return `the return value of (${nodeName(node.name)})`;
+    case 'LookupVal':
+      return `${nodeName(node.target)}["${nodeName(node.val)}"]`;
+    case 'Literal':
+      return String(node.value);
+    default:
+      return '--expression--';
   }
 }
 
@@ -454,7 +587,8 @@ export function createCompiledTemplates(env: nunjucks.Environment) {
   const throwOnUndefined = Boolean(opts.throwOnUndefined);
   const autoescape = Boolean(opts.autoescape);
   const extensions = (env as unknown as { extensionsList?: unknown[] }).extensionsList ?? [];
-  if (extensions.length) throw new Unsupported('template extensions are not handled by the template compiler');
+  if (extensions.length)
+    throw new Unsupported('template extensions are not handled by the template compiler');
   const globals = (env as unknown as { globals: Record<string, unknown> }).globals;
   const filterContext = { env, ctx: {} };
 
@@ -464,30 +598,53 @@ export function createCompiledTemplates(env: nunjucks.Environment) {
     isArray: Array.isArray,
     keys: Object.keys,
     filter(name: string) {
-      try { return env.getFilter(name); } catch { return () => { throw new Error(`filter not found: ${name}`); }; }
+      try {
+        return env.getFilter(name);
+      } catch {
+        return () => {
+          throw new Error(`filter not found: ${name}`);
+        };
+      }
     },
     test(name: string) {
-      try { return (env as unknown as { getTest(n: string): unknown }).getTest(name); } catch { return () => { throw new Error(`test not found: ${name}`); }; }
+      try {
+        return (env as unknown as { getTest(n: string): unknown }).getTest(name);
+      } catch {
+        return () => {
+          throw new Error(`test not found: ${name}`);
+        };
+      }
     },
     defined(value: unknown, name: string, lineno: number, colno: number) {
       if (value === null || value === undefined) {
-        throw new Error(`(${name}) [Line ${lineno + 1}, Column ${colno + 1}]\n  attempted to output null or undefined value`);
+        throw new Error(
+          `(${name}) [Line ${lineno + 1}, Column ${colno + 1}]\n  attempted to output null or undefined value`,
+        );
       }
       return value;
     },
     extend(s: Scope, locals?: Scope) {
       return locals ? Object.assign({}, s, locals) : Object.assign({}, s);
     },
-    globalScope() { return Object.assign({}, globals); },
+    globalScope() {
+      return Object.assign({}, globals);
+    },
     exported(t: CompiledTemplate, scope: Scope) {
       t.render(scope);
       const out: Scope = {};
       for (const name of t.exportNames) out[name] = scope[name];
       return out;
     },
-    template(name: unknown, parent: string) { return get(String(name), parent); },
+    template(name: unknown, parent: string) {
+      return get(String(name), parent);
+    },
     templateOrNull(name: unknown, parent: string) {
-      try { return get(String(name), parent); } catch (e) { if (e instanceof Unsupported) throw e; return null; }
+      try {
+        return get(String(name), parent);
+      } catch (e) {
+        if (e instanceof Unsupported) throw e;
+        return null;
+      }
     },
   };
 
@@ -498,7 +655,11 @@ export function createCompiledTemplates(env: nunjucks.Environment) {
     const cacheKey = `${parent ?? ''}\0${name}`;
     const known = resolved.get(cacheKey);
     if (known) return known;
-    const tmpl = (env as unknown as { getTemplate(n: string, eager: boolean, parent?: string): { path: string; tmplStr: string } }).getTemplate(name, false, parent ?? undefined);
+    const tmpl = (
+      env as unknown as {
+        getTemplate(n: string, eager: boolean, parent?: string): { path: string; tmplStr: string };
+      }
+    ).getTemplate(name, false, parent ?? undefined);
     const key = tmpl.path ?? name;
     const hit = compiled.get(key) ?? compileSource(name, key, tmpl.tmplStr);
     compiled.set(key, hit);
@@ -507,14 +668,22 @@ export function createCompiledTemplates(env: nunjucks.Environment) {
   }
 
   function compileSource(name: string, path: string, source: string): CompiledTemplate {
-    const { body, exportNames } = new Compiler(name, path, throwOnUndefined, autoescape).compileRoot(parse(source, extensions, opts));
+    const { body, exportNames } = new Compiler(
+      name,
+      path,
+      throwOnUndefined,
+      autoescape,
+    ).compileRoot(parse(source, extensions, opts));
     // a template is code by design; it comes from our folder or the department's, as nunjucks' own output does
     const render = new Function('rt', body)(rt) as (s: Scope) => string;
     return { name, exportNames, render };
   }
 
   /** A template as a function of its variables, with the environment's globals beneath them (as nunjucks' context has). */
-  const entry = (t: CompiledTemplate) => (data: Scope): string => t.render(Object.assign({}, globals, data));
+  const entry =
+    (t: CompiledTemplate) =>
+    (data: Scope): string =>
+      t.render(Object.assign({}, globals, data));
 
   return {
     /** the compiled template for a name, compiling it (and nothing else) on first use */
@@ -523,6 +692,7 @@ export function createCompiledTemplates(env: nunjucks.Environment) {
     /** a template's text for the given variables */
     render: (name: string, data: Scope) => entry(get(name, null))(data),
     /** compile a template from source text under a name of its own (not looked up in the folders) */
-    fromString: (name: string, source: string): CompiledTemplate => compileSource(name, name, source),
+    fromString: (name: string, source: string): CompiledTemplate =>
+      compileSource(name, name, source),
   };
 }

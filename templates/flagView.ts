@@ -16,7 +16,11 @@ export interface FlagView {
 }
 
 type Values = Flag['values'];
-type Builder = (values: Values, findings: Findings, fmt: Formatter) => Record<string, Text | boolean>;
+type Builder = (
+  values: Values,
+  findings: Findings,
+  fmt: Formatter,
+) => Record<string, Text | boolean>;
 
 const num = (values: Values, key: string): number | null => {
   const x = values[key];
@@ -29,12 +33,18 @@ const str = (values: Values, key: string): string | null => {
 const bool = (values: Values, key: string): boolean => values[key] === true;
 
 /** PaCO2, PvCO2 or PcCO2 as the sample is. */
-export const co2Label = (sample: Findings['case']['sample']): string => (sample === 'venous' ? 'PvCO2' : sample === 'capillary' ? 'PcCO2' : 'PaCO2');
-export const o2Label = (sample: Findings['case']['sample']): string => (sample === 'venous' ? 'PvO2' : sample === 'capillary' ? 'PcO2' : 'PaO2');
+export const co2Label = (sample: Findings['case']['sample']): string =>
+  sample === 'venous' ? 'PvCO2' : sample === 'capillary' ? 'PcCO2' : 'PaCO2';
+export const o2Label = (sample: Findings['case']['sample']): string =>
+  sample === 'venous' ? 'PvO2' : sample === 'capillary' ? 'PcO2' : 'PaO2';
 
 const GAS_FIELD_LABEL: Record<string, (f: Findings) => string> = {
-  ph: () => 'pH', pco2: (f) => co2Label(f.case.sample), hco3: () => 'HCO3', po2: (f) => o2Label(f.case.sample),
-  k: () => 'K', lactate: () => 'lactate',
+  ph: () => 'pH',
+  pco2: (f) => co2Label(f.case.sample),
+  hco3: () => 'HCO3',
+  po2: (f) => o2Label(f.case.sample),
+  k: () => 'K',
+  lactate: () => 'lactate',
 };
 
 function gasValue(field: string | null, value: number | null, fmt: Formatter): Text {
@@ -48,19 +58,42 @@ const which = (values: Values) => ({ suggested: str(values, 'which') === 'sugges
 
 /** One builder per flag code: the compiler refuses a new code until it has one. */
 const BUILDERS: Record<FlagCode, Builder> = {
-  values_inconsistent: (x, _f, fmt) => ({ reported: fmt.mmol(num(x, 'reported')), calculated: fmt.mmol(num(x, 'calculated')), difference: fmt.mmol(abs(num(x, 'difference'))) }),
+  values_inconsistent: (x, _f, fmt) => ({
+    reported: fmt.mmol(num(x, 'reported')),
+    calculated: fmt.mmol(num(x, 'calculated')),
+    difference: fmt.mmol(abs(num(x, 'difference'))),
+  }),
   gas_value_computed: (x, f, fmt) => {
     const field = str(x, 'field');
-    return { label: field && GAS_FIELD_LABEL[field] ? GAS_FIELD_LABEL[field]!(f) : null, value: gasValue(field, num(x, 'value'), fmt) };
+    return {
+      label: field && GAS_FIELD_LABEL[field] ? GAS_FIELD_LABEL[field]!(f) : null,
+      value: gasValue(field, num(x, 'value'), fmt),
+    };
   },
   unit_ambiguous: (x, f, fmt) => ({
-    label: co2Label(f.case.sample), entered: fmt.pressureAsEntered(num(x, 'pco2')), ph: fmt.ph(num(x, 'ph')),
-    unit: fmt.pressureUnit, other: fmt.kpa ? 'mmHg' : 'kPa',
+    label: co2Label(f.case.sample),
+    entered: fmt.pressureAsEntered(num(x, 'pco2')),
+    ph: fmt.ph(num(x, 'ph')),
+    unit: fmt.pressureUnit,
+    other: fmt.kpa ? 'mmHg' : 'kPa',
   }),
-  po2_above_alveolar: (x, _f, fmt) => ({ po2: fmt.pressure(num(x, 'po2')), alveolar: fmt.pressure(num(x, 'alveolarPo2')), fio2: fmt.fio2(num(x, 'fio2')) }),
-  oxygenation_not_assessable: (x, f) => ({ venous: (str(x, 'sample') ?? f.case.sample) === 'venous', capillary: (str(x, 'sample') ?? f.case.sample) === 'capillary' }),
-  venous_sample: (x, f, fmt) => ({ label: co2Label(f.case.sample), pco2: fmt.pressure(num(x, 'pco2')) }),
-  capillary_sample: (x, f, fmt) => ({ label: co2Label(f.case.sample), pco2: fmt.pressure(num(x, 'pco2')) }),
+  po2_above_alveolar: (x, _f, fmt) => ({
+    po2: fmt.pressure(num(x, 'po2')),
+    alveolar: fmt.pressure(num(x, 'alveolarPo2')),
+    fio2: fmt.fio2(num(x, 'fio2')),
+  }),
+  oxygenation_not_assessable: (x, f) => ({
+    venous: (str(x, 'sample') ?? f.case.sample) === 'venous',
+    capillary: (str(x, 'sample') ?? f.case.sample) === 'capillary',
+  }),
+  venous_sample: (x, f, fmt) => ({
+    label: co2Label(f.case.sample),
+    pco2: fmt.pressure(num(x, 'pco2')),
+  }),
+  capillary_sample: (x, f, fmt) => ({
+    label: co2Label(f.case.sample),
+    pco2: fmt.pressure(num(x, 'pco2')),
+  }),
   fio2_missing: () => ({}),
   aa_reference_room_air_only: (x, _f, fmt) => ({ fio2: fmt.fio2(num(x, 'fio2')) }),
   adult_rules_only: (x, _f, fmt) => ({ age: fmt.withUnit(num(x, 'ageYears'), 0, 'years') }),
@@ -72,38 +105,87 @@ const BUILDERS: Record<FlagCode, Builder> = {
     };
   },
   baseline_estimated: (x, _f, fmt) => ({
-    pco2: fmt.pressure(num(x, 'pco2')), hco3: fmt.mmol(num(x, 'hco3')),
-    pco2Estimated: bool(x, 'pco2Estimated'), hco3Estimated: bool(x, 'hco3Estimated'),
+    pco2: fmt.pressure(num(x, 'pco2')),
+    hco3: fmt.mmol(num(x, 'hco3')),
+    pco2Estimated: bool(x, 'pco2Estimated'),
+    hco3Estimated: bool(x, 'hco3Estimated'),
   }),
-  temperature_not_37: (x, _f, fmt) => ({ temperature: fmt.withUnit(num(x, 'temperatureC'), 1, '°C') }),
+  temperature_not_37: (x, _f, fmt) => ({
+    temperature: fmt.withUnit(num(x, 'temperatureC'), 1, '°C'),
+  }),
   critical_value: (x, f, fmt) => {
     const field = str(x, 'field');
     return {
       label: field && GAS_FIELD_LABEL[field] ? GAS_FIELD_LABEL[field]!(f) : null,
-      value: gasValue(field, num(x, 'value'), fmt), limit: gasValue(field, num(x, 'limit'), fmt),
-      below: str(x, 'direction') === 'below', above: str(x, 'direction') === 'above',
+      value: gasValue(field, num(x, 'value'), fmt),
+      limit: gasValue(field, num(x, 'limit'), fmt),
+      below: str(x, 'direction') === 'below',
+      above: str(x, 'direction') === 'above',
       atOrAbove: str(x, 'direction') === 'above' && field === 'lactate',
     };
   },
-  vt_above_8_ml_per_kg: (x, f, fmt) => ({ ...which(x), vt: fmt.withUnit(num(x, 'vt'), 0, 'mL'), perKg: fmt.withUnitFixed(num(x, 'vtPerKg'), 1, 'mL/kg PBW'), limit: limits(f, fmt).vtHigh }),
-  rr_above_35: (x, f, fmt) => ({ ...which(x), rr: fmt.withUnit(num(x, 'rr'), 0, '/min'), limit: limits(f, fmt).rrMax }),
-  plateau_above_30: (x, f, fmt) => ({ pplat: fmt.withUnit(num(x, 'pplat'), 0, 'cmH2O'), limit: limits(f, fmt).plateau }),
-  driving_pressure_above_15: (x, f, fmt) => ({ drivingPressure: fmt.withUnit(num(x, 'drivingPressure'), 0, 'cmH2O'), limit: limits(f, fmt).drivingPressure }),
-  dead_space_exceeds_vt: (x, _f, fmt) => ({ vt: fmt.withUnit(num(x, 'vt'), 0, 'mL'), deadSpace: fmt.withUnit(num(x, 'deadSpace'), 0, 'mL') }),
+  vt_above_8_ml_per_kg: (x, f, fmt) => ({
+    ...which(x),
+    vt: fmt.withUnit(num(x, 'vt'), 0, 'mL'),
+    perKg: fmt.withUnitFixed(num(x, 'vtPerKg'), 1, 'mL/kg PBW'),
+    limit: limits(f, fmt).vtHigh,
+  }),
+  rr_above_35: (x, f, fmt) => ({
+    ...which(x),
+    rr: fmt.withUnit(num(x, 'rr'), 0, '/min'),
+    limit: limits(f, fmt).rrMax,
+  }),
+  plateau_above_30: (x, f, fmt) => ({
+    pplat: fmt.withUnit(num(x, 'pplat'), 0, 'cmH2O'),
+    limit: limits(f, fmt).plateau,
+  }),
+  driving_pressure_above_15: (x, f, fmt) => ({
+    drivingPressure: fmt.withUnit(num(x, 'drivingPressure'), 0, 'cmH2O'),
+    limit: limits(f, fmt).drivingPressure,
+  }),
+  dead_space_exceeds_vt: (x, _f, fmt) => ({
+    vt: fmt.withUnit(num(x, 'vt'), 0, 'mL'),
+    deadSpace: fmt.withUnit(num(x, 'deadSpace'), 0, 'mL'),
+  }),
   pbw_not_applicable: (x, _f, fmt) => ({ height: fmt.withUnit(num(x, 'heightCm'), 0, 'cm') }),
   target_pco2_above_compensation: (x, _f, fmt) => {
-    const low = num(x, 'expectedLow'), high = num(x, 'expectedHigh');
-    return { target: fmt.pressure(num(x, 'target')), expected: low !== null && high !== null ? fmt.pressureBand({ low, high }) : null };
+    const low = num(x, 'expectedLow'),
+      high = num(x, 'expectedHigh');
+    return {
+      target: fmt.pressure(num(x, 'target')),
+      expected: low !== null && high !== null ? fmt.pressureBand({ low, high }) : null,
+    };
   },
-  target_pco2_below_baseline: (x, _f, fmt) => ({ target: fmt.pressure(num(x, 'target')), usual: fmt.pressure(num(x, 'usual')), estimated: bool(x, 'estimated') }),
-  permissive_hypercapnia_possible: (x, f, fmt) => ({ label: co2Label(f.case.sample), pco2: fmt.pressure(num(x, 'pco2')), target: fmt.pressure(num(x, 'target')) }),
-  target_not_reachable: (x, _f, fmt) => ({ targetPh: fmt.ph(num(x, 'targetPh')), targetPco2: fmt.pressure(num(x, 'targetPco2')) }),
+  target_pco2_below_baseline: (x, _f, fmt) => ({
+    target: fmt.pressure(num(x, 'target')),
+    usual: fmt.pressure(num(x, 'usual')),
+    estimated: bool(x, 'estimated'),
+  }),
+  permissive_hypercapnia_possible: (x, f, fmt) => ({
+    label: co2Label(f.case.sample),
+    pco2: fmt.pressure(num(x, 'pco2')),
+    target: fmt.pressure(num(x, 'target')),
+  }),
+  target_not_reachable: (x, _f, fmt) => ({
+    targetPh: fmt.ph(num(x, 'targetPh')),
+    targetPco2: fmt.pressure(num(x, 'targetPco2')),
+  }),
   no_ventilation_target: () => ({}),
-  suggestion_from_venous_pco2: (x, f) => ({ label: co2Label((str(x, 'sample') as Findings['case']['sample'] | null) ?? f.case.sample), capillary: (str(x, 'sample') ?? f.case.sample) === 'capillary' }),
-  osmolar_gap_raised: (x, _f, fmt) => ({ gap: fmt.mosm(num(x, 'osmolarGap')), limit: fmt.mosm(R.OSMOLAR_GAP_RAISED) }),
+  suggestion_from_venous_pco2: (x, f) => ({
+    label: co2Label((str(x, 'sample') as Findings['case']['sample'] | null) ?? f.case.sample),
+    capillary: (str(x, 'sample') ?? f.case.sample) === 'capillary',
+  }),
+  osmolar_gap_raised: (x, _f, fmt) => ({
+    gap: fmt.mosm(num(x, 'osmolarGap')),
+    limit: fmt.mosm(R.OSMOLAR_GAP_RAISED),
+  }),
   lactate_raised: (x, f, fmt) => {
     const band = str(x, 'band');
-    return { lactate: fmt.mmol(num(x, 'lactate')), high: band === 'high', limit: fmt.mmol(band === 'high' ? R.LACTATE.high : R.LACTATE.raised) };
+    return {
+      lactate: fmt.mmol(num(x, 'lactate')),
+      high: band === 'high',
+      limit: fmt.mmol(band === 'high' ? R.LACTATE.high : R.LACTATE.raised),
+    };
   },
 };
 
@@ -126,31 +208,59 @@ export function limits(_f: Findings | null, fmt: Formatter) {
 
 /** Where each flag belongs in the note. */
 const SECTION: Record<FlagCode, FlagSection> = {
-  values_inconsistent: 'interpretation', gas_value_computed: 'interpretation', unit_ambiguous: 'interpretation',
-  adult_rules_only: 'interpretation', pregnancy_reference: 'interpretation', baseline_estimated: 'interpretation',
-  temperature_not_37: 'interpretation', osmolar_gap_raised: 'interpretation', lactate_raised: 'interpretation',
-  po2_above_alveolar: 'oxygenation', oxygenation_not_assessable: 'oxygenation', venous_sample: 'oxygenation',
-  capillary_sample: 'oxygenation', fio2_missing: 'oxygenation', aa_reference_room_air_only: 'oxygenation',
-  vt_above_8_ml_per_kg: 'ventilation', rr_above_35: 'ventilation', plateau_above_30: 'ventilation',
-  driving_pressure_above_15: 'ventilation', dead_space_exceeds_vt: 'ventilation', pbw_not_applicable: 'ventilation',
-  target_pco2_above_compensation: 'ventilation', target_pco2_below_baseline: 'ventilation',
-  permissive_hypercapnia_possible: 'ventilation', target_not_reachable: 'ventilation', no_ventilation_target: 'ventilation',
+  values_inconsistent: 'interpretation',
+  gas_value_computed: 'interpretation',
+  unit_ambiguous: 'interpretation',
+  adult_rules_only: 'interpretation',
+  pregnancy_reference: 'interpretation',
+  baseline_estimated: 'interpretation',
+  temperature_not_37: 'interpretation',
+  osmolar_gap_raised: 'interpretation',
+  lactate_raised: 'interpretation',
+  po2_above_alveolar: 'oxygenation',
+  oxygenation_not_assessable: 'oxygenation',
+  venous_sample: 'oxygenation',
+  capillary_sample: 'oxygenation',
+  fio2_missing: 'oxygenation',
+  aa_reference_room_air_only: 'oxygenation',
+  vt_above_8_ml_per_kg: 'ventilation',
+  rr_above_35: 'ventilation',
+  plateau_above_30: 'ventilation',
+  driving_pressure_above_15: 'ventilation',
+  dead_space_exceeds_vt: 'ventilation',
+  pbw_not_applicable: 'ventilation',
+  target_pco2_above_compensation: 'ventilation',
+  target_pco2_below_baseline: 'ventilation',
+  permissive_hypercapnia_possible: 'ventilation',
+  target_not_reachable: 'ventilation',
+  no_ventilation_target: 'ventilation',
   suggestion_from_venous_pco2: 'ventilation',
   critical_value: 'cautions',
 };
 
 /** Flags the note's paragraphs already put into words (the view model carries their numbers). */
 const IN_TEXT: ReadonlySet<FlagCode> = new Set<FlagCode>([
-  'gas_value_computed', 'pregnancy_reference', 'baseline_estimated', 'osmolar_gap_raised', 'lactate_raised',
-  'oxygenation_not_assessable', 'venous_sample', 'capillary_sample', 'fio2_missing', 'aa_reference_room_air_only',
-  'no_ventilation_target', 'critical_value', 'unit_ambiguous',
+  'gas_value_computed',
+  'pregnancy_reference',
+  'baseline_estimated',
+  'osmolar_gap_raised',
+  'lactate_raised',
+  'oxygenation_not_assessable',
+  'venous_sample',
+  'capillary_sample',
+  'fio2_missing',
+  'aa_reference_room_air_only',
+  'no_ventilation_target',
+  'critical_value',
+  'unit_ambiguous',
 ]);
 
 export function flagView(flag: Flag, findings: Findings, fmt: Formatter): FlagView {
   const build = BUILDERS[flag.code] as Builder | undefined;
   const values = build ? build(flag.values ?? {}, findings, fmt) : {};
   return {
-    code: flag.code, severity: flag.severity,
+    code: flag.code,
+    severity: flag.severity,
     section: SECTION[flag.code] ?? 'interpretation',
     inText: IN_TEXT.has(flag.code),
     v: values,

@@ -22,7 +22,14 @@ export function numberText(value: Maybe, decimals: number, fixed = false): Text 
 }
 
 // "16/min" and "93%" take no space; every other unit does ("48 mmHg")
-const withUnit = (text: Text, unit: string): Text => (text === null ? null : !unit ? text : unit[0] === '/' || unit[0] === '%' ? `${text}${unit}` : `${text} ${unit}`);
+const withUnit = (text: Text, unit: string): Text =>
+  text === null
+    ? null
+    : !unit
+      ? text
+      : unit[0] === '/' || unit[0] === '%'
+        ? `${text}${unit}`
+        : `${text} ${unit}`;
 
 /** Every number-to-text rule of the note, bound to the clinician's units. */
 export interface Formatter {
@@ -60,11 +67,13 @@ export interface Formatter {
 export function formatter(units: U.Units): Formatter {
   const kpa = units.pressure === 'kPa';
   const pressureUnit = U.unitLabel('pressure', units);
-  const pressureNumber = (mmHg: Maybe): Text => (known(mmHg) ? numberText(U.fromCanonical('pressure', mmHg, units), kpa ? 1 : 0, true) : null);
+  const pressureNumber = (mmHg: Maybe): Text =>
+    known(mmHg) ? numberText(U.fromCanonical('pressure', mmHg, units), kpa ? 1 : 0, true) : null;
   const pressure = (mmHg: Maybe): Text => withUnit(pressureNumber(mmHg), pressureUnit);
   const band = (b: Band | null | undefined, show: (x: number) => Text, unit: string): Text => {
     if (!b) return null;
-    const low = show(b.low), high = show(b.high);
+    const low = show(b.low),
+      high = show(b.high);
     if (low === null || high === null) return null;
     return withUnit(low === high ? low : `${low}-${high}`, unit);
   };
@@ -74,9 +83,16 @@ export function formatter(units: U.Units): Formatter {
     return withUnit(numberText(U.fromCanonical(kind, value, units), decimalsBy(unit), true), unit);
   };
   return {
-    units, kpa, pressure, pressureNumber, pressureUnit,
+    units,
+    kpa,
+    pressure,
+    pressureNumber,
+    pressureUnit,
     pressureBand: (b) => band(b, pressureNumber, pressureUnit),
-    pressureAsEntered: (mmHg) => (known(mmHg) ? withUnit(numberText(U.fromCanonical('pressure', mmHg, units), 2), pressureUnit) : null),
+    pressureAsEntered: (mmHg) =>
+      known(mmHg)
+        ? withUnit(numberText(U.fromCanonical('pressure', mmHg, units), 2), pressureUnit)
+        : null,
     pfRatio: (mmHg) => pressure(mmHg),
     ph: (value) => numberText(value, 2, true),
     mmol: (value, decimals = 1) => withUnit(numberText(value, decimals), 'mmol/L'),
@@ -94,7 +110,8 @@ export function formatter(units: U.Units): Formatter {
     withUnit: (value, decimals, unit) => withUnit(numberText(value, decimals), unit),
     withUnitFixed: (value, decimals, unit) => withUnit(numberText(value, decimals, true), unit),
     range: (low, high, decimals, unit) => {
-      const a = numberText(low, decimals), b = numberText(high, decimals);
+      const a = numberText(low, decimals),
+        b = numberText(high, decimals);
       return a === null || b === null ? null : withUnit(a === b ? a : `${a}-${b}`, unit);
     },
     fio2: (fraction) => numberText(fraction, 2, true),

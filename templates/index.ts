@@ -10,7 +10,12 @@ import { flagView } from './flagView.ts';
 import { buildView, type NoteFormat } from './view.ts';
 import { createCompiledTemplates, Unsupported } from './compile.ts';
 
-export interface Note { line: string; text: string; handover: string; format: 'text' | 'markdown' }
+export interface Note {
+  line: string;
+  text: string;
+  handover: string;
+  format: 'text' | 'markdown';
+}
 
 export interface NoteRenderer {
   /** 'compiled': the templates run as compiled functions (compile.ts); 'nunjucks': nunjucks' own runtime */
@@ -32,8 +37,15 @@ const FLAG_MESSAGE_SOURCE = '{% import "flag.njk" as fl %}{{ fl.message(flag) }}
  * that a template tag ran into the next one gets its space back. Character classes for the rules below, for
  * every UTF-16 code unit; SPACE is exactly what a regular expression's \s matches (the test checks all 65,536).
  */
-const SPACE = 1, UPPER = 2, STOP = 3, CLOSING = 4, OPENING = 5; // STOP (. ; :) also closes
-export const WHITESPACE_CODES = [9, 10, 11, 12, 13, 32, 160, 5760, 8192, 8193, 8194, 8195, 8196, 8197, 8198, 8199, 8200, 8201, 8202, 8232, 8233, 8239, 8287, 12288, 65279];
+const SPACE = 1,
+  UPPER = 2,
+  STOP = 3,
+  CLOSING = 4,
+  OPENING = 5; // STOP (. ; :) also closes
+export const WHITESPACE_CODES = [
+  9, 10, 11, 12, 13, 32, 160, 5760, 8192, 8193, 8194, 8195, 8196, 8197, 8198, 8199, 8200, 8201,
+  8202, 8232, 8233, 8239, 8287, 12288, 65279,
+];
 const CLASS = new Uint8Array(65536);
 for (const c of WHITESPACE_CODES) CLASS[c] = SPACE;
 for (let c = 65; c <= 90; c++) CLASS[c] = UPPER;
@@ -58,7 +70,10 @@ export function paragraph(value: unknown): string {
     const c = CLASS[text.charCodeAt(i)]!;
     if (c !== SPACE) {
       if (start < 0) start = i;
-      else if (c === UPPER && prev === STOP) { out += text.slice(start, i) + ' '; start = i; }
+      else if (c === UPPER && prev === STOP) {
+        out += text.slice(start, i) + ' ';
+        start = i;
+      }
       prev = last = c;
       i++;
       continue;
@@ -69,9 +84,16 @@ export function paragraph(value: unknown): string {
     const next = CLASS[text.charCodeAt(j)];
     const keep = last !== -1 && next !== STOP && next !== CLOSING && last !== OPENING;
     // one plain space that stays: the stretch goes on
-    if (keep && j === i + 1 && text.charCodeAt(i) === 32) { prev = SPACE; i = j; continue; }
+    if (keep && j === i + 1 && text.charCodeAt(i) === 32) {
+      prev = SPACE;
+      i = j;
+      continue;
+    }
     if (start >= 0) out += text.slice(start, i);
-    if (keep) { out += ' '; prev = SPACE; }
+    if (keep) {
+      out += ' ';
+      prev = SPACE;
+    }
     start = j;
     i = j;
   }
@@ -87,7 +109,9 @@ export function sentenceCase(value: unknown): string {
 /** Trailing spaces go, runs of blank lines shrink to one. */
 function tidy(text: string): string {
   return text
-    .split('\n').map((l) => l.trimEnd()).join('\n')
+    .split('\n')
+    .map((l) => l.trimEnd())
+    .join('\n')
     .replace(/\n{3,}/g, '\n\n')
     .trim();
 }
@@ -105,43 +129,80 @@ function templateFiles(dir: string, prefix = ''): string[] {
 function checkFolder(dir: string): string {
   const resolved = path.resolve(dir);
   let ok = false;
-  try { ok = statSync(resolved).isDirectory(); } catch { ok = false; }
-  if (!ok) throw new Error(`Note template folder "${dir}" does not exist or is not a folder (check NOTE_TEMPLATES)`);
+  try {
+    ok = statSync(resolved).isDirectory();
+  } catch {
+    ok = false;
+  }
+  if (!ok)
+    throw new Error(
+      `Note template folder "${dir}" does not exist or is not a folder (check NOTE_TEMPLATES)`,
+    );
   return resolved;
 }
 
 function isFindings(x: unknown): x is Findings {
-  return typeof x === 'object' && x !== null && (x as { ok?: unknown }).ok === true && 'derived' in x && 'case' in x;
+  return (
+    typeof x === 'object' &&
+    x !== null &&
+    (x as { ok?: unknown }).ok === true &&
+    'derived' in x &&
+    'case' in x
+  );
 }
 
 /**
  * One nunjucks environment per renderer. Every template is read and compiled here, once; a render reads no file.
  * A template that prints a missing value throws (throwOnUndefined), so a gap in the data never reaches a note.
  */
-export function createNoteRenderer(options: { templateDir?: string | null; engine?: 'compiled' | 'nunjucks' } = {}): NoteRenderer {
+export function createNoteRenderer(
+  options: { templateDir?: string | null; engine?: 'compiled' | 'nunjucks' } = {},
+): NoteRenderer {
   const departmentDir = options.templateDir ? checkFolder(options.templateDir) : null;
-  const searchPaths = departmentDir && departmentDir !== DEFAULT_TEMPLATE_DIR ? [departmentDir, DEFAULT_TEMPLATE_DIR] : [DEFAULT_TEMPLATE_DIR];
+  const searchPaths =
+    departmentDir && departmentDir !== DEFAULT_TEMPLATE_DIR
+      ? [departmentDir, DEFAULT_TEMPLATE_DIR]
+      : [DEFAULT_TEMPLATE_DIR];
   const loader = new nunjucks.FileSystemLoader(searchPaths, { noCache: false, watch: false });
-  const env = new nunjucks.Environment(loader, { autoescape: false, throwOnUndefined: true, trimBlocks: true, lstripBlocks: true });
+  const env = new nunjucks.Environment(loader, {
+    autoescape: false,
+    throwOnUndefined: true,
+    trimBlocks: true,
+    lstripBlocks: true,
+  });
   env.addFilter('para', paragraph);
   // the built-in trim runs a regular expression over the whole text; the native trim does the same job
   env.addFilter('trim', (value: unknown) => String(value ?? '').trim());
   env.addFilter('sentence', sentenceCase);
-  env.addFilter('known', (items: unknown) => (Array.isArray(items) ? items.filter((x) => x !== null && x !== undefined && String(x).trim() !== '') : []));
-  env.addFilter('knownPairs', (pairs: unknown) => (Array.isArray(pairs)
-    ? pairs.filter((p) => Array.isArray(p) && p[1] !== null && p[1] !== undefined && String(p[1]).trim() !== '')
-    : []));
+  env.addFilter('known', (items: unknown) =>
+    Array.isArray(items)
+      ? items.filter((x) => x !== null && x !== undefined && String(x).trim() !== '')
+      : [],
+  );
+  env.addFilter('knownPairs', (pairs: unknown) =>
+    Array.isArray(pairs)
+      ? pairs.filter(
+          (p) =>
+            Array.isArray(p) && p[1] !== null && p[1] !== undefined && String(p[1]).trim() !== '',
+        )
+      : [],
+  );
 
   // read and compile everything now, the department's files and the defaults alike, by one engine or the other
   const names = new Set<string>(searchPaths.flatMap((dir) => templateFiles(dir)));
-  const entries = compiledEntries(env, names, options.engine ?? 'compiled') ?? nunjucksEntries(env, names);
+  const entries =
+    compiledEntries(env, names, options.engine ?? 'compiled') ?? nunjucksEntries(env, names);
 
   return {
     engine: entries.engine,
     render(findings, renderOptions = {}) {
-      if (!isFindings(findings)) throw new TypeError('render() needs the findings of an accepted case (interpret() returned errors)');
+      if (!isFindings(findings))
+        throw new TypeError(
+          'render() needs the findings of an accepted case (interpret() returned errors)',
+        );
       const format: NoteFormat = renderOptions.format ?? 'text';
-      if (format !== 'text' && format !== 'markdown') throw new TypeError(`Unknown note format "${String(format)}": use "text" or "markdown"`);
+      if (format !== 'text' && format !== 'markdown')
+        throw new TypeError(`Unknown note format "${String(format)}": use "text" or "markdown"`);
       const v = buildView(findings, format);
       const oneLine = paragraph(entries.line({ v }));
       return {
@@ -152,7 +213,8 @@ export function createNoteRenderer(options: { templateDir?: string | null; engin
       };
     },
     flagMessage(flag, findings) {
-      if (!isFindings(findings)) throw new TypeError('flagMessage() needs the findings the flag came from');
+      if (!isFindings(findings))
+        throw new TypeError('flagMessage() needs the findings the flag came from');
       const view = flagView(flag, findings, formatter(findings.units));
       return paragraph(entries.flagMessage({ flag: view, v: { md: false } }));
     },
@@ -160,7 +222,13 @@ export function createNoteRenderer(options: { templateDir?: string | null; engin
 }
 
 type Entry = (data: Record<string, unknown>) => string;
-interface Entries { engine: 'compiled' | 'nunjucks'; line: Entry; note: Entry; handover: Entry; flagMessage: Entry }
+interface Entries {
+  engine: 'compiled' | 'nunjucks';
+  line: Entry;
+  note: Entry;
+  handover: Entry;
+  flagMessage: Entry;
+}
 
 /** nunjucks' own runtime: the reference the compiled templates are tested against, and the fallback. */
 function nunjucksEntries(env: nunjucks.Environment, names: Iterable<string>): Entries {
@@ -182,7 +250,11 @@ function nunjucksEntries(env: nunjucks.Environment, names: Iterable<string>): En
  * The same templates compiled to functions (compile.ts), every file up front so that nothing is compiled during
  * a request. A department template using something the compiler does not handle keeps the whole renderer on nunjucks.
  */
-function compiledEntries(env: nunjucks.Environment, names: Iterable<string>, engine: 'compiled' | 'nunjucks'): Entries | null {
+function compiledEntries(
+  env: nunjucks.Environment,
+  names: Iterable<string>,
+  engine: 'compiled' | 'nunjucks',
+): Entries | null {
   if (engine === 'nunjucks') return null;
   try {
     const compiled = createCompiledTemplates(env);

@@ -6,4 +6,12 @@ export type { PasteResult, ReadValue, Skipped, Shorthand, UnitSource } from './p
 export { caseFromFhir } from './fhir.ts';
 export type { FhirResult, FhirRead, FhirUnused, FhirSuperseded, FhirConversion } from './fhir.ts';
 export { LOINC_CODES, LOINC_NOT_READ, UCUM, loincEntry, REQUIRED_GAS } from './loinc.ts';
-export type { CasePath, IntakeCase, Question, Sample, LoincEntry, QuantityKind, Specimen } from './loinc.ts';
+export type {
+  CasePath,
+  IntakeCase,
+  Question,
+  Sample,
+  LoincEntry,
+  QuantityKind,
+  Specimen,
+} from './loinc.ts';

@@ -2,19 +2,38 @@
 // -> a draft case, what was read (to confirm), what must be asked, and what was left unused.
 // Pure: no I/O. A value is filled only when its field and unit are clear; anything else becomes a question.
 // Nothing here converts a unit: the case carries the clinician's units and calc/ converts once, at its edge.
-import { CHEMISTRY_RANGES, GAS_RANGES, OXYGEN_RANGES, checkFio2, type Range } from '../../calc/schema.ts';
-import { DEFAULT_UNITS, kpaToMmHg, toCanonical, type PressureUnit, type Units } from '../../calc/units.ts';
+import {
+  CHEMISTRY_RANGES,
+  GAS_RANGES,
+  OXYGEN_RANGES,
+  checkFio2,
+  type Range,
+} from '../../calc/schema.ts';
+import {
+  DEFAULT_UNITS,
+  kpaToMmHg,
+  toCanonical,
+  type PressureUnit,
+  type Units,
+} from '../../calc/units.ts';
 import { hendersonPco2, hydrogenIon } from '../../calc/acidBase.ts';
-import { missingGas, setCaseValue, type CasePath, type IntakeCase, type Question, type Sample } from './loinc.ts';
+import {
+  missingGas,
+  setCaseValue,
+  type CasePath,
+  type IntakeCase,
+  type Question,
+  type Sample,
+} from './loinc.ts';
 
 // ---------- public shapes ----------
 
 /** Where the unit of a read value came from. */
 export type UnitSource =
-  | 'text'      // written beside the value
-  | 'printout'  // written on another pressure line or in a column header of the same paste
+  | 'text' // written beside the value
+  | 'printout' // written on another pressure line or in a column header of the same paste
   | 'magnitude' // the only unit in which the number is plausible
-  | 'implied';  // the quantity has one unit in practice (pH none, Na mmol/L, FiO2 fraction or percent)
+  | 'implied'; // the quantity has one unit in practice (pH none, Na mmol/L, FiO2 fraction or percent)
 
 export interface ReadValue {
   path: CasePath;
@@ -29,7 +48,11 @@ export interface ReadValue {
 }
 
 /** A label that was recognised but deliberately not used, with the reason. */
-export interface Skipped { sourceText: string; reason: string; line: number }
+export interface Skipped {
+  sourceText: string;
+  reason: string;
+  line: number;
+}
 
 export interface PasteResult {
   /** a partial case of the interface contract; units set from what was read */
@@ -60,14 +83,35 @@ export const MAX_PASTE_CHARS = 50_000; // with the rest of the form, within the 
 
 // One character for one character, so a position in the normalised line is the same in the original.
 const CHAR_MAP: Record<string, string> = {
-  '\u2212': '-', '\u2013': '-', '\u2014': '-', '\u2010': '-', '\u2011': '-', '\u00a0': ' ', '\u2009': ' ', '\u202f': ' ',
-  '\u2082': '2', '\u2083': '3', '\u207b': '-', '\u207a': '+', '\u00b5': 'u', '\u03bc': 'u', '\uff05': '%', '\u2264': '<', '\u2265': '>',
+  '\u2212': '-',
+  '\u2013': '-',
+  '\u2014': '-',
+  '\u2010': '-',
+  '\u2011': '-',
+  '\u00a0': ' ',
+  '\u2009': ' ',
+  '\u202f': ' ',
+  '\u2082': '2',
+  '\u2083': '3',
+  '\u207b': '-',
+  '\u207a': '+',
+  '\u00b5': 'u',
+  '\u03bc': 'u',
+  '\uff05': '%',
+  '\u2264': '<',
+  '\u2265': '>',
 };
-const normalizeChars = (s: string): string => s.replace(/[\u2212\u2013\u2014\u2010\u2011\u00a0\u2009\u202f\u2082\u2083\u207b\u207a\u00b5\u03bc\uff05\u2264\u2265]/g, (ch) => CHAR_MAP[ch] ?? ch);
+const normalizeChars = (s: string): string =>
+  s.replace(
+    /[\u2212\u2013\u2014\u2010\u2011\u00a0\u2009\u202f\u2082\u2083\u207b\u207a\u00b5\u03bc\uff05\u2264\u2265]/g,
+    (ch) => CHAR_MAP[ch] ?? ch,
+  );
 
 // A tag never spans lines here: a stray "<" in a printout ("K <3.0") must not swallow the lines after it.
-const HTML_TAG = /<\/?(?:html|head|body|table|thead|tbody|tr|td|th|p|div|br|span|li|ul|ol|pre|font|b|strong|em|h[1-6]|section|article|a|img|meta|title|style|script)(?:\s[^<>\n]{0,500})?\/?>/i;
-const ANY_TAG = /<\/?[A-Za-z][\w-]{0,20}(?:\s[^<>\n]{0,500})?\/?>|<!--[^\n]{0,500}?-->|<!doctype[^<>\n]{0,100}>/gi;
+const HTML_TAG =
+  /<\/?(?:html|head|body|table|thead|tbody|tr|td|th|p|div|br|span|li|ul|ol|pre|font|b|strong|em|h[1-6]|section|article|a|img|meta|title|style|script)(?:\s[^<>\n]{0,500})?\/?>/i;
+const ANY_TAG =
+  /<\/?[A-Za-z][\w-]{0,20}(?:\s[^<>\n]{0,500})?\/?>|<!--[^\n]{0,500}?-->|<!doctype[^<>\n]{0,100}>/gi;
 
 /** Remove <script>...</script> (or style) blocks in one pass. */
 function dropBlocks(text: string, tag: 'script' | 'style'): string {
@@ -92,7 +136,10 @@ function stripHtml(text: string): string {
     .replace(/<\/(?:p|div|tr|li|h[1-6]|table|title|pre|ul|ol)\s*>/gi, '\n')
     .replace(/<\/(?:td|th)\s*>/gi, '\t')
     .replace(ANY_TAG, '')
-    .replace(/&nbsp;/gi, ' ').replace(/&lt;/gi, '<').replace(/&gt;/gi, '>').replace(/&micro;/gi, 'µ')
+    .replace(/&nbsp;/gi, ' ')
+    .replace(/&lt;/gi, '<')
+    .replace(/&gt;/gi, '>')
+    .replace(/&micro;/gi, 'µ')
     .replace(/&#(\d{1,6});/g, (_, d: string) => String.fromCodePoint(Math.min(Number(d), 0x10ffff)))
     .replace(/&amp;/gi, '&');
 }
@@ -108,7 +155,18 @@ function parseNumber(token: string): number | 'ambiguous' {
   return Number(token);
 }
 
-type UnitToken = 'kPa' | 'mmHg' | 'mmol/L' | 'mg/dL' | 'g/dL' | 'g/L' | 'umol/L' | 'mOsm/kg' | 'mOsm/L' | '%' | 'nmol/L';
+type UnitToken =
+  | 'kPa'
+  | 'mmHg'
+  | 'mmol/L'
+  | 'mg/dL'
+  | 'g/dL'
+  | 'g/L'
+  | 'umol/L'
+  | 'mOsm/kg'
+  | 'mOsm/L'
+  | '%'
+  | 'nmol/L';
 
 const UNIT_PATTERNS: readonly [UnitToken, RegExp][] = [
   ['kPa', /^kpa(?![a-z])/i],
@@ -133,7 +191,8 @@ function unitAt(s: string): { unit: UnitToken; length: number } | null {
   return null;
 }
 
-const UNIT_ANYWHERE = /(?<![a-z])(?:kpa|mm\s?hg|mm\[hg\]|torr|(?:mosm|mmol)\s?\/\s?kg(?:\s?h2o)?|mosm\s?\/\s?l|mmol\s?\/\s?l|meq\s?\/\s?l|umol\s?\/\s?l|nmol\s?\/\s?l|mg\s?\/\s?dl|mg\s?%|gm?\s?\/\s?dl|g\s?\/\s?l)(?![a-z])|%/gi;
+const UNIT_ANYWHERE =
+  /(?<![a-z])(?:kpa|mm\s?hg|mm\[hg\]|torr|(?:mosm|mmol)\s?\/\s?kg(?:\s?h2o)?|mosm\s?\/\s?l|mmol\s?\/\s?l|meq\s?\/\s?l|umol\s?\/\s?l|nmol\s?\/\s?l|mg\s?\/\s?dl|mg\s?%|gm?\s?\/\s?dl|g\s?\/\s?l)(?![a-z])|%/gi;
 
 // ---------- labels ----------
 
@@ -143,10 +202,15 @@ type LabelTarget =
   | { skip: string }
   | { ask: 'baseDeficit' | 'capsPAO2' };
 
-interface LabelDef { re: RegExp; target: LabelTarget }
+interface LabelDef {
+  re: RegExp;
+  target: LabelTarget;
+}
 
-const L = (source: string, flags: string, target: LabelTarget): LabelDef =>
-  ({ re: new RegExp(String.raw`(?<![A-Za-z0-9])(?:${source})(?![A-Za-z0-9])`, `g${flags}`), target });
+const L = (source: string, flags: string, target: LabelTarget): LabelDef => ({
+  re: new RegExp(String.raw`(?<![A-Za-z0-9])(?:${source})(?![A-Za-z0-9])`, `g${flags}`),
+  target,
+});
 
 const TEMPERATURE_CORRECTED = 'temperature-corrected value; the 37 °C value is the one read';
 
@@ -155,30 +219,75 @@ const TEMPERATURE_CORRECTED = 'temperature-corrected value; the 37 °C value is 
 // Order matters only between matches of equal length at one place.
 const LABELS: readonly LabelDef[] = [
   // recognised and deliberately not read
-  L(String.raw`(?:std\.?|st\.?|standard)\s?HCO3-?|HCO3-?\s?(?:std|st)|HCO3-?\s?\(\s*(?:P\s*,\s*)?st(?:d|andard)?\s*\)|SBC|standard\s+bicarbonate|st(?:d|andard)?\.?\s+bicarb(?:onate)?`, 'i', { skip: 'standard bicarbonate is not the actual HCO3' }),
-  L(String.raw`t\s?CO2|total\s+CO2|CO2,?\s+total|CO2\s+content|carbon\s+dioxide(?:,?\s+total)?`, 'i', { skip: 'total CO2 is not the blood-gas HCO3 (it runs about 1-2 mmol/L higher); enter it as HCO3 by hand if that is meant' }),
-  L(String.raw`CO2`, '', { skip: 'total CO2 is not the blood-gas HCO3 (it runs about 1-2 mmol/L higher); enter it as HCO3 by hand if that is meant' }),
+  L(
+    String.raw`(?:std\.?|st\.?|standard)\s?HCO3-?|HCO3-?\s?(?:std|st)|HCO3-?\s?\(\s*(?:P\s*,\s*)?st(?:d|andard)?\s*\)|SBC|standard\s+bicarbonate|st(?:d|andard)?\.?\s+bicarb(?:onate)?`,
+    'i',
+    { skip: 'standard bicarbonate is not the actual HCO3' },
+  ),
+  L(
+    String.raw`t\s?CO2|total\s+CO2|CO2,?\s+total|CO2\s+content|carbon\s+dioxide(?:,?\s+total)?`,
+    'i',
+    {
+      skip: 'total CO2 is not the blood-gas HCO3 (it runs about 1-2 mmol/L higher); enter it as HCO3 by hand if that is meant',
+    },
+  ),
+  L(String.raw`CO2`, '', {
+    skip: 'total CO2 is not the blood-gas HCO3 (it runs about 1-2 mmol/L higher); enter it as HCO3 by hand if that is meant',
+  }),
   L(String.raw`E\s?T\s?CO2|P\s?ET\s?CO2`, 'i', { skip: 'end-tidal CO2 is not the blood PaCO2' }),
-  L(String.raw`p[aA]?O2\s?\/\s?F[iI]O2|P\s?\/\s?F(?:\s+ratio)?`, '', { skip: 'ratio: Gasline works it out from PaO2 and FiO2' }),
-  L(String.raw`A\s?-\s?a(?:\s?DO2|\s+gradient)?|AaDO2|a\s?\/\s?A(?:\s+ratio)?`, '', { skip: 'alveolar-arterial values: Gasline works them out' }),
-  L(String.raw`AG|AnGap|anion\s+gap`, '', { skip: 'anion gap: Gasline works it out from Na, Cl and HCO3' }),
+  L(String.raw`p[aA]?O2\s?\/\s?F[iI]O2|P\s?\/\s?F(?:\s+ratio)?`, '', {
+    skip: 'ratio: Gasline works it out from PaO2 and FiO2',
+  }),
+  L(String.raw`A\s?-\s?a(?:\s?DO2|\s+gradient)?|AaDO2|a\s?\/\s?A(?:\s+ratio)?`, '', {
+    skip: 'alveolar-arterial values: Gasline works them out',
+  }),
+  L(String.raw`AG|AnGap|anion\s+gap`, '', {
+    skip: 'anion gap: Gasline works it out from Na, Cl and HCO3',
+  }),
   L(String.raw`anion\s+gap`, 'i', { skip: 'anion gap: Gasline works it out from Na, Cl and HCO3' }),
-  L(String.raw`calc(?:ulated)?\.?\s+osm(?:olality|olarity)?|osm(?:olality|olarity)?\s*\(\s*calc(?:ulated)?\.?\s*\)|osmolarity|osm(?:olal|olar)?\s+gap`, 'i', { skip: 'calculated osmolality is not the measured osmolality' }),
+  L(
+    String.raw`calc(?:ulated)?\.?\s+osm(?:olality|olarity)?|osm(?:olality|olarity)?\s*\(\s*calc(?:ulated)?\.?\s*\)|osmolarity|osm(?:olal|olar)?\s+gap`,
+    'i',
+    { skip: 'calculated osmolality is not the measured osmolality' },
+  ),
   L(String.raw`S\s?c?v\s?O2`, 'i', { skip: 'venous saturation is not SaO2' }),
   // asked, never filled
   L(String.raw`base\s+deficit`, 'i', { ask: 'baseDeficit' }),
   L(String.raw`PA\s?O2`, '', { ask: 'capsPAO2' }),
   // read
   L(String.raw`pH|PH`, '', { field: 'gas.ph' }),
-  L(String.raw`[pP]\s?[aAvV]?\s?[cC][oO]2|carbon\s+dioxide,?\s+partial\s+pressure|partial\s+pressure\s+of\s+carbon\s+dioxide`, '', { field: 'gas.pco2' }),
+  L(
+    String.raw`[pP]\s?[aAvV]?\s?[cC][oO]2|carbon\s+dioxide,?\s+partial\s+pressure|partial\s+pressure\s+of\s+carbon\s+dioxide`,
+    '',
+    { field: 'gas.pco2' },
+  ),
   L(String.raw`[pP]\s?[aAvV]?\s?[oO]2`, '', { field: 'gas.po2' }),
-  L(String.raw`[caCA]?HCO3-?(?:\s?\(\s*(?:P|B|a|act)\s*(?:,\s*c)?\s*\))?(?:\s?act(?:ual)?)?|act(?:ual)?\.?\s?HCO3-?|actual\s+bicarbonate|bicarbonate|bicarb`, 'i', { field: 'gas.hco3' }),
-  L(String.raw`BE\s?\(\s*(?:B|b|act|blood)\s*\)|BEb|BE-b|ABE|cBase\s?\(\s*B\s*\)`, '', { field: 'gas.baseExcess', variant: 'actual' }),
-  L(String.raw`act(?:ual)?\.?\s+base\s+excess|base\s+excess\s*\(\s*(?:B|blood|act(?:ual)?)\s*\)`, 'i', { field: 'gas.baseExcess', variant: 'actual' }),
-  L(String.raw`BE\s?\(\s*(?:ecf|st|std)\s*\)|BE-?ecf|SBE|cBase\s?\(\s*ecf\s*\)|standard\s+base\s+excess|base\s+excess\s*\(\s*(?:ecf|std|st)\s*\)`, 'i', { field: 'gas.baseExcess', variant: 'standard' }),
+  L(
+    String.raw`[caCA]?HCO3-?(?:\s?\(\s*(?:P|B|a|act)\s*(?:,\s*c)?\s*\))?(?:\s?act(?:ual)?)?|act(?:ual)?\.?\s?HCO3-?|actual\s+bicarbonate|bicarbonate|bicarb`,
+    'i',
+    { field: 'gas.hco3' },
+  ),
+  L(String.raw`BE\s?\(\s*(?:B|b|act|blood)\s*\)|BEb|BE-b|ABE|cBase\s?\(\s*B\s*\)`, '', {
+    field: 'gas.baseExcess',
+    variant: 'actual',
+  }),
+  L(
+    String.raw`act(?:ual)?\.?\s+base\s+excess|base\s+excess\s*\(\s*(?:B|blood|act(?:ual)?)\s*\)`,
+    'i',
+    { field: 'gas.baseExcess', variant: 'actual' },
+  ),
+  L(
+    String.raw`BE\s?\(\s*(?:ecf|st|std)\s*\)|BE-?ecf|SBE|cBase\s?\(\s*ecf\s*\)|standard\s+base\s+excess|base\s+excess\s*\(\s*(?:ecf|std|st)\s*\)`,
+    'i',
+    { field: 'gas.baseExcess', variant: 'standard' },
+  ),
   L(String.raw`BE|B\.E\.`, '', { field: 'gas.baseExcess', variant: 'plain' }),
   L(String.raw`base\s+excess|cBase`, 'i', { field: 'gas.baseExcess', variant: 'plain' }),
-  L(String.raw`[sS]\s?[aA]?\s?[oO]2|O2\s?sat(?:uration)?|sat(?:uration)?\s?O2|oxygen\s+saturation`, 'i', { field: 'gas.sao2', variant: 'so2' }),
+  L(
+    String.raw`[sS]\s?[aA]?\s?[oO]2|O2\s?sat(?:uration)?|sat(?:uration)?\s?O2|oxygen\s+saturation`,
+    'i',
+    { field: 'gas.sao2', variant: 'so2' },
+  ),
   L(String.raw`F?O2\s?Hb|HbO2|oxyh(?:a)?emoglobin`, 'i', { field: 'gas.sao2', variant: 'o2hb' }),
   L(String.raw`SpO2`, 'i', { field: 'oxygen.spo2' }),
   L(String.raw`c?t?Hb|THb|Hgb|HGB|HB`, '', { field: 'gas.hb' }),
@@ -197,11 +306,20 @@ const LABELS: readonly LabelDef[] = [
   L(String.raw`urea`, 'i', { field: 'chemistry.urea' }),
   L(String.raw`c?crea(?:t(?:inine)?)?`, 'i', { field: 'chemistry.creatinine' }),
   L(String.raw`Cr`, '', { field: 'chemistry.creatinine' }),
-  L(String.raw`(?:measured\s+|serum\s+)?osm(?:o(?:lality)?)?(?:\s*\(\s*meas(?:ured)?\.?\s*\))?`, 'i', { field: 'chemistry.osmolality' }),
+  L(
+    String.raw`(?:measured\s+|serum\s+)?osm(?:o(?:lality)?)?(?:\s*\(\s*meas(?:ured)?\.?\s*\))?`,
+    'i',
+    { field: 'chemistry.osmolality' },
+  ),
   L(String.raw`F\s?[iI]\s?O2|FO2\s?\(\s*I\s*\)`, '', { field: 'oxygen.fio2' }),
 ];
 
-interface LabelMatch { start: number; end: number; def: LabelDef; order: number }
+interface LabelMatch {
+  start: number;
+  end: number;
+  def: LabelDef;
+  order: number;
+}
 
 function findLabels(line: string): LabelMatch[] {
   const all: LabelMatch[] = [];
@@ -213,7 +331,7 @@ function findLabels(line: string): LabelMatch[] {
     }
   });
   // earliest first; at one place the longest; then table order
-  all.sort((a, b) => a.start - b.start || (b.end - b.start) - (a.end - a.start) || a.order - b.order);
+  all.sort((a, b) => a.start - b.start || b.end - b.start - (a.end - a.start) || a.order - b.order);
   const kept: LabelMatch[] = [];
   for (const m of all) if (!kept.length || m.start >= kept[kept.length - 1]!.end) kept.push(m);
   return kept;
@@ -221,7 +339,12 @@ function findLabels(line: string): LabelMatch[] {
 
 // ---------- one label's value ----------
 
-interface Qualifiers { end: number; corrected: boolean; alveolar: boolean; unit: UnitToken | null }
+interface Qualifiers {
+  end: number;
+  corrected: boolean;
+  alveolar: boolean;
+  unit: UnitToken | null;
+}
 
 /** Parenthesised marks right after a label: (T), (37 °C), (kPa), (A), (P), a reference range ... */
 function readQualifiers(line: string, from: number): Qualifiers {
@@ -229,14 +352,24 @@ function readQualifiers(line: string, from: number): Qualifiers {
   for (let guard = 0; guard < 6; guard++) {
     const rest = line.slice(q.end, q.end + 80); // qualifiers are short; a bounded look keeps long lines linear
     const at = /^\s*(?:@|at)\s*(\d+(?:[.,]\d+)?)\s*°?\s*C(?![A-Za-z])/i.exec(rest);
-    if (at) { if (Number(at[1]!.replace(',', '.')) !== 37) q.corrected = true; q.end += at[0].length; continue; }
+    if (at) {
+      if (Number(at[1]!.replace(',', '.')) !== 37) q.corrected = true;
+      q.end += at[0].length;
+      continue;
+    }
     const m = /^\s*[(\[]([^()\[\]]{0,30})[)\]]/.exec(rest);
     if (!m) break;
     const content = m[1]!.trim();
     const temp = /^(\d+(?:[.,]\d+)?)\s*°?\s*C?$/i.exec(content);
-    if (/^(?:t|temp\.?|temp\.?\s*corr(?:ected)?\.?|pt\.?\s*temp\.?|pat(?:ient)?\.?\s*temp\.?)$/i.test(content)) q.corrected = true;
-    else if (temp) { if (Number(temp[1]!.replace(',', '.')) !== 37) q.corrected = true; }
-    else if (/^(?:A|A-a|a\/A|alv(?:eolar)?|alv\.)$/.test(content)) q.alveolar = true;
+    if (
+      /^(?:t|temp\.?|temp\.?\s*corr(?:ected)?\.?|pt\.?\s*temp\.?|pat(?:ient)?\.?\s*temp\.?)$/i.test(
+        content,
+      )
+    )
+      q.corrected = true;
+    else if (temp) {
+      if (Number(temp[1]!.replace(',', '.')) !== 37) q.corrected = true;
+    } else if (/^(?:A|A-a|a\/A|alv(?:eolar)?|alv\.)$/.test(content)) q.alveolar = true;
     else {
       const unit = unitAt(content);
       if (unit && unit.length === content.length) q.unit = unit.unit;
@@ -251,7 +384,8 @@ type SegmentValue =
   | { kind: 'none' }
   | { kind: 'question'; reason: string; value?: number };
 
-const FLAG_TOKENS = /^(?:H|L|HH|LL|A|N|C|c|\*+|!+|↑+|↓+|high|low|crit(?:ical)?|abn(?:ormal)?|normal|calc(?:ulated)?\.?|est(?:imated)?\.?|meas(?:ured)?\.?|ref(?:erence)?\.?|range|ref\.?\s*range|n|r|flag|result|value|units?|[:=|;,.\-\/])$/i;
+const FLAG_TOKENS =
+  /^(?:H|L|HH|LL|A|N|C|c|\*+|!+|↑+|↓+|high|low|crit(?:ical)?|abn(?:ormal)?|normal|calc(?:ulated)?\.?|est(?:imated)?\.?|meas(?:ured)?\.?|ref(?:erence)?\.?|range|ref\.?\s*range|n|r|flag|result|value|units?|[:=|;,.\-\/])$/i;
 const RANGE = String.raw`[-+]?${NUM}(?:-|\s+-\s+|\s+to\s+)[-+]?${NUM}`;
 
 /** The text after a label (and its qualifiers) up to the next label. */
@@ -261,10 +395,19 @@ function readSegment(segment: string, qualifierUnit: UnitToken | null): SegmentV
   // before the value: separators, a unit in brackets, a reference range, a flag
   for (let guard = 0; guard < 8; guard++) {
     const sep = /^[\s:=|;]+/.exec(s);
-    if (sep) { s = s.slice(sep[0].length); continue; }
+    if (sep) {
+      s = s.slice(sep[0].length);
+      continue;
+    }
     // "PH, ARTERIAL  7.22": the specimen or method written after the label
-    const specimen = /^,?\s*(?:arterial|venous|capillary|art\.|ven\.|cap\.|whole\s+blood|blood|serum|plasma|POC|point[-\s]of[-\s]care|measured|meas\.|calc(?:ulated)?\.?)(?![A-Za-z])/i.exec(s);
-    if (specimen) { s = s.slice(specimen[0].length); continue; }
+    const specimen =
+      /^,?\s*(?:arterial|venous|capillary|art\.|ven\.|cap\.|whole\s+blood|blood|serum|plasma|POC|point[-\s]of[-\s]care|measured|meas\.|calc(?:ulated)?\.?)(?![A-Za-z])/i.exec(
+        s,
+      );
+    if (specimen) {
+      s = s.slice(specimen[0].length);
+      continue;
+    }
     const group = /^[(\[]([^()\[\]]{0,40})[)\]]/.exec(s);
     if (group) {
       const u = unitAt(group[1]!.trim());
@@ -273,17 +416,31 @@ function readSegment(segment: string, qualifierUnit: UnitToken | null): SegmentV
       continue;
     }
     const range = new RegExp(`^${RANGE}(?![\\d.,])`).exec(s);
-    if (range) { s = s.slice(range[0].length); continue; }
+    if (range) {
+      s = s.slice(range[0].length);
+      continue;
+    }
     const flag = /^(?:H|L|HH|LL|\*+|!+|↑+|↓+)\s+/.exec(s);
-    if (flag) { s = s.slice(flag[0].length); continue; }
+    if (flag) {
+      s = s.slice(flag[0].length);
+      continue;
+    }
     break;
   }
   const bound = new RegExp(`^([<>]=?)\\s*(${NUM})`).exec(s);
-  if (bound) return { kind: 'question', reason: `"${bound[0]}" is a bound, not a value: enter the number by hand if it is meant` };
+  if (bound)
+    return {
+      kind: 'question',
+      reason: `"${bound[0]}" is a bound, not a value: enter the number by hand if it is meant`,
+    };
   const m = new RegExp(`^([-+]?)(${NUM})(?![\\d/:])`).exec(s);
   if (!m) return { kind: 'none' };
   const parsed = parseNumber(m[2]!);
-  if (parsed === 'ambiguous') return { kind: 'question', reason: `"${m[2]}" could be a decimal comma or a thousands separator: enter the number by hand` };
+  if (parsed === 'ambiguous')
+    return {
+      kind: 'question',
+      reason: `"${m[2]}" could be a decimal comma or a thousands separator: enter the number by hand`,
+    };
   if (/^\d{1,2}[.,]\d{1,2}[.,]\d{2,4}/.test(s.slice(m[1]!.length))) return { kind: 'none' }; // a date, not a value
   const value = m[1] === '-' ? -parsed : parsed;
   let rest = s.slice(m[0].length);
@@ -291,7 +448,12 @@ function readSegment(segment: string, qualifierUnit: UnitToken | null): SegmentV
   rest = rest.replace(/^(?:HH|LL|H|L|\*+|!+|↑+|↓+)(?![A-Za-z0-9])/, ' ');
   const direct = unitAt(rest.replace(/^\s+/, ''));
   if (direct) {
-    if (unit && unit !== direct.unit) return { kind: 'question', reason: `two units (${unit} and ${direct.unit}) for one value`, value };
+    if (unit && unit !== direct.unit)
+      return {
+        kind: 'question',
+        reason: `two units (${unit} and ${direct.unit}) for one value`,
+        value,
+      };
     unit = direct.unit;
     rest = rest.replace(/^\s+/, '').slice(direct.length);
   }
@@ -317,20 +479,43 @@ function readSegment(segment: string, qualifierUnit: UnitToken | null): SegmentV
     else if (found && unit && found.unit !== unit) conflict = found.unit;
     return ' ';
   });
-  if (conflict) return { kind: 'question', reason: `two units (${unit} and ${conflict}) beside one value`, value };
+  if (conflict)
+    return {
+      kind: 'question',
+      reason: `two units (${unit} and ${conflict}) beside one value`,
+      value,
+    };
   const tokens = leftover.split(/[\s\t]+/).filter((t) => t && !FLAG_TOKENS.test(t));
-  if (tokens.some((t) => /\d/.test(t))) return { kind: 'question', reason: `more than one number after the label (${tokens.filter((t) => /\d/.test(t)).join(' ')}): which one is the result?`, value };
-  if (tokens.some((t) => /[A-Za-z]{2,}/.test(t))) return { kind: 'question', reason: `words after the value (${tokens.join(' ')}): check it is the result`, value };
+  if (tokens.some((t) => /\d/.test(t)))
+    return {
+      kind: 'question',
+      reason: `more than one number after the label (${tokens.filter((t) => /\d/.test(t)).join(' ')}): which one is the result?`,
+      value,
+    };
+  if (tokens.some((t) => /[A-Za-z]{2,}/.test(t)))
+    return {
+      kind: 'question',
+      reason: `words after the value (${tokens.join(' ')}): check it is the result`,
+      value,
+    };
   return { kind: 'value', value, unit };
 }
 
 // ---------- the shorthand ----------
 
 // three or more numbers joined by "/", the first a pH: "7.31/48" alone is not the shorthand
-const SHORTHAND_RUN = new RegExp(String.raw`(?<![\w.\/])${NUM}(?:\s*\/\s*(?:[-+]?${NUM}|[-xX?])){2,}(?![\w.\/])`, 'g');
+const SHORTHAND_RUN = new RegExp(
+  String.raw`(?<![\w.\/])${NUM}(?:\s*\/\s*(?:[-+]?${NUM}|[-xX?])){2,}(?![\w.\/])`,
+  'g',
+);
 const PH_LIKE = /^\d[.,]\d{1,3}$/;
 
-interface ShorthandRun { start: number; end: number; parts: string[]; unit: PressureUnit | null }
+interface ShorthandRun {
+  start: number;
+  end: number;
+  parts: string[];
+  unit: PressureUnit | null;
+}
 
 function shorthandRuns(line: string): ShorthandRun[] {
   const runs: ShorthandRun[] = [];
@@ -360,9 +545,21 @@ export function parseShorthand(text: string): Shorthand | null {
   for (const line of prepared.split(/\r\n|\r|\n/)) {
     for (const run of shorthandRuns(line)) {
       if (run.parts.length !== 4) continue;
-      const [ph, pco2, po2, hco3] = run.parts.map(shorthandNumber) as [number, number | null, number | null, number | null];
+      const [ph, pco2, po2, hco3] = run.parts.map(shorthandNumber) as [
+        number,
+        number | null,
+        number | null,
+        number | null,
+      ];
       if ([ph, pco2, po2, hco3].some((v) => Number.isNaN(v))) continue;
-      return { ph, pco2, po2, hco3, unit: run.unit, sourceText: line.slice(run.start, run.end).trim() };
+      return {
+        ph,
+        pco2,
+        po2,
+        hco3,
+        unit: run.unit,
+        sourceText: line.slice(run.start, run.end).trim(),
+      };
     }
   }
   return null;
@@ -370,7 +567,10 @@ export function parseShorthand(text: string): Shorthand | null {
 
 // ---------- plausibility and units ----------
 
-interface Window { min: number; max: number }
+interface Window {
+  min: number;
+  max: number;
+}
 // Windows in which a bare number is a believable adult result in that unit. They only decide which unit a
 // number without one is in; a number inside two windows is asked about (our own limits, common practice).
 const WINDOWS = {
@@ -378,7 +578,11 @@ const WINDOWS = {
   po2: { mmHg: { min: 15, max: 700 }, kPa: { min: 2, max: 93 } },
   albumin: { 'g/dL': { min: 0.8, max: 6.5 }, 'g/L': { min: 8, max: 65 } },
   // Hb in mmol/L (Hb monomer, about 16.1 g/mmol; from memory) is used in some countries and is asked about
-  hb: { 'g/dL': { min: 3, max: 25 }, 'g/L': { min: 30, max: 250 }, 'mmol/L': { min: 1.8, max: 15.5 } },
+  hb: {
+    'g/dL': { min: 3, max: 25 },
+    'g/L': { min: 30, max: 250 },
+    'mmol/L': { min: 1.8, max: 15.5 },
+  },
   glucose: { 'mmol/L': { min: 0.5, max: 60 }, 'mg/dL': { min: 20, max: 1500 } },
   creatinine: { 'mg/dL': { min: 0.15, max: 25 }, 'umol/L': { min: 15, max: 2500 } },
   // "Urea" in mg/dL may be urea itself or urea nitrogen (BUN): asked about, never taken as one or the other
@@ -388,26 +592,59 @@ const WINDOWS = {
 const inWindow = (v: number, w: Window): boolean => v >= w.min && v <= w.max;
 
 const RANGE_OF: Partial<Record<CasePath, Range>> = {
-  'gas.ph': GAS_RANGES.ph, 'gas.pco2': GAS_RANGES.pco2, 'gas.po2': GAS_RANGES.po2, 'gas.hco3': GAS_RANGES.hco3,
-  'gas.baseExcess': GAS_RANGES.baseExcess, 'gas.sao2': GAS_RANGES.sao2, 'gas.lactate': GAS_RANGES.lactate, 'gas.hb': GAS_RANGES.hb,
-  'chemistry.na': CHEMISTRY_RANGES.na, 'chemistry.k': CHEMISTRY_RANGES.k, 'chemistry.cl': CHEMISTRY_RANGES.cl,
-  'chemistry.albumin': CHEMISTRY_RANGES.albumin, 'chemistry.glucose': CHEMISTRY_RANGES.glucose, 'chemistry.urea': CHEMISTRY_RANGES.urea,
-  'chemistry.creatinine': CHEMISTRY_RANGES.creatinine, 'chemistry.osmolality': CHEMISTRY_RANGES.osmolality, 'oxygen.spo2': OXYGEN_RANGES.spo2,
+  'gas.ph': GAS_RANGES.ph,
+  'gas.pco2': GAS_RANGES.pco2,
+  'gas.po2': GAS_RANGES.po2,
+  'gas.hco3': GAS_RANGES.hco3,
+  'gas.baseExcess': GAS_RANGES.baseExcess,
+  'gas.sao2': GAS_RANGES.sao2,
+  'gas.lactate': GAS_RANGES.lactate,
+  'gas.hb': GAS_RANGES.hb,
+  'chemistry.na': CHEMISTRY_RANGES.na,
+  'chemistry.k': CHEMISTRY_RANGES.k,
+  'chemistry.cl': CHEMISTRY_RANGES.cl,
+  'chemistry.albumin': CHEMISTRY_RANGES.albumin,
+  'chemistry.glucose': CHEMISTRY_RANGES.glucose,
+  'chemistry.urea': CHEMISTRY_RANGES.urea,
+  'chemistry.creatinine': CHEMISTRY_RANGES.creatinine,
+  'chemistry.osmolality': CHEMISTRY_RANGES.osmolality,
+  'oxygen.spo2': OXYGEN_RANGES.spo2,
 };
 
 const LABEL_OF: Record<CasePath, string> = {
-  'gas.ph': 'pH', 'gas.pco2': 'PaCO2', 'gas.po2': 'PaO2', 'gas.hco3': 'HCO3', 'gas.baseExcess': 'Base excess', 'gas.sao2': 'SaO2',
-  'gas.lactate': 'Lactate', 'gas.hb': 'Hb', 'chemistry.na': 'Na', 'chemistry.k': 'K', 'chemistry.cl': 'Cl', 'chemistry.albumin': 'Albumin',
-  'chemistry.glucose': 'Glucose', 'chemistry.urea': 'Urea', 'chemistry.creatinine': 'Creatinine', 'chemistry.osmolality': 'Osmolality',
-  'oxygen.fio2': 'FiO2', 'oxygen.spo2': 'SpO2', 'context.temperatureC': 'Temperature',
+  'gas.ph': 'pH',
+  'gas.pco2': 'PaCO2',
+  'gas.po2': 'PaO2',
+  'gas.hco3': 'HCO3',
+  'gas.baseExcess': 'Base excess',
+  'gas.sao2': 'SaO2',
+  'gas.lactate': 'Lactate',
+  'gas.hb': 'Hb',
+  'chemistry.na': 'Na',
+  'chemistry.k': 'K',
+  'chemistry.cl': 'Cl',
+  'chemistry.albumin': 'Albumin',
+  'chemistry.glucose': 'Glucose',
+  'chemistry.urea': 'Urea',
+  'chemistry.creatinine': 'Creatinine',
+  'chemistry.osmolality': 'Osmolality',
+  'oxygen.fio2': 'FiO2',
+  'oxygen.spo2': 'SpO2',
+  'context.temperatureC': 'Temperature',
 };
 
 /** Is the value inside the schema's range once read in these units? (the same check the API makes) */
 function passesSchema(path: CasePath, value: number, units: Partial<Units>): boolean {
-  if (path === 'oxygen.fio2') { const errors: { path: string; message: string }[] = []; checkFio2(value, path, errors); return errors.length === 0; }
+  if (path === 'oxygen.fio2') {
+    const errors: { path: string; message: string }[] = [];
+    checkFio2(value, path, errors);
+    return errors.length === 0;
+  }
   const range = RANGE_OF[path];
   if (!range) return true;
-  const canonical = range.kind ? toCanonical(range.kind, value, { ...DEFAULT_UNITS, ...units }) : value;
+  const canonical = range.kind
+    ? toCanonical(range.kind, value, { ...DEFAULT_UNITS, ...units })
+    : value;
   return canonical >= range.min && canonical <= range.max;
 }
 
@@ -435,22 +672,45 @@ interface Collector {
 const SAMPLE_WORDS: readonly [Sample, RegExp][] = [
   ['arterial', /(?<![A-Za-z])(?:arterial|ABG)(?![A-Za-z])/],
   ['arterial', /(?<![A-Za-z])arterial(?![A-Za-z])/i],
-  ['venous', /(?<![A-Za-z])(?:(?:mixed|central|peripheral)\s+)?venous(?![A-Za-z])|(?<![A-Za-z])VBG(?![A-Za-z])/i],
+  [
+    'venous',
+    /(?<![A-Za-z])(?:(?:mixed|central|peripheral)\s+)?venous(?![A-Za-z])|(?<![A-Za-z])VBG(?![A-Za-z])/i,
+  ],
   ['capillary', /(?<![A-Za-z])capillary(?![A-Za-z])|(?<![A-Za-z])CBG(?![A-Za-z])/i],
 ];
 
-const CORRECTED_SECTION = /temperature[-\s]*corrected|temp\.?\s*corr(?:ected)?|corrected\s+(?:to|for)\s+(?:the\s+)?(?:patient(?:'s)?\s+)?temp|at\s+patient(?:'s)?\s+temp/i;
+const CORRECTED_SECTION =
+  /temperature[-\s]*corrected|temp\.?\s*corr(?:ected)?|corrected\s+(?:to|for)\s+(?:the\s+)?(?:patient(?:'s)?\s+)?temp|at\s+patient(?:'s)?\s+temp/i;
 const STANDARD_SECTION = /(?:at|@)\s*37(?:[.,]0)?\s*°?\s*C|uncorrected/i;
 const GAS_PRESSURE_OR_PH: ReadonlySet<CasePath> = new Set(['gas.ph', 'gas.pco2', 'gas.po2']);
 const LINE_PREFIX_OK = /^[\s\-*•·>|:#]*$/;
 
-interface Header { labels: { path: CasePath | null; unit: UnitToken | null; variant: Variant | undefined; skip?: string }[]; raw: string; line: number }
+interface Header {
+  labels: {
+    path: CasePath | null;
+    unit: UnitToken | null;
+    variant: Variant | undefined;
+    skip?: string;
+  }[];
+  raw: string;
+  line: number;
+}
 
 export function parsePaste(text: string): PasteResult {
   const input = String(text ?? '');
-  const result: PasteResult = { case: { gas: {} }, read: [], questions: [], ignored: [], skipped: [], missing: [] };
+  const result: PasteResult = {
+    case: { gas: {} },
+    read: [],
+    questions: [],
+    ignored: [],
+    skipped: [],
+    missing: [],
+  };
   if (input.length > MAX_PASTE_CHARS) {
-    result.questions.push({ path: '(text)', reason: `The text is longer than ${MAX_PASTE_CHARS} characters: paste the result lines only` });
+    result.questions.push({
+      path: '(text)',
+      reason: `The text is longer than ${MAX_PASTE_CHARS} characters: paste the result lines only`,
+    });
     result.missing = missingGas(result.case);
     return result;
   }
@@ -463,13 +723,23 @@ export function parsePaste(text: string): PasteResult {
   rawLines.forEach((raw, index) => {
     const lineNo = index + 1;
     const norm = normalizeChars(raw);
-    if (!norm.trim()) { correctedSection = false; if (header) { col.ignored.push(header.raw.trim()); header = null; } return; }
+    if (!norm.trim()) {
+      correctedSection = false;
+      if (header) {
+        col.ignored.push(header.raw.trim());
+        header = null;
+      }
+      return;
+    }
     const source = (a: number, b: number) => raw.slice(a, b).trim();
     let used = false;
     const fragments: string[] = [];
 
     for (const [sample, re] of SAMPLE_WORDS) {
-      if (re.test(norm) && !col.samples.some((s) => s.line === lineNo && s.sample === sample)) { col.samples.push({ sample, sourceText: raw.trim(), line: lineNo }); used = true; }
+      if (re.test(norm) && !col.samples.some((s) => s.line === lineNo && s.sample === sample)) {
+        col.samples.push({ sample, sourceText: raw.trim(), line: lineNo });
+        used = true;
+      }
     }
     const lineCorrected = CORRECTED_SECTION.test(norm);
 
@@ -477,17 +747,42 @@ export function parsePaste(text: string): PasteResult {
     if (header) {
       const pending: Header = header;
       header = null;
-      const cells = norm.trim().split(/\s*[|\t;]\s*|\s{2,}|\s+/).filter(Boolean);
-      if (findLabels(norm).length === 0 && cells.length === pending.labels.length && cells.every((c) => new RegExp(`^[-+]?${NUM}(?:HH|LL|H|L|\\*)?$`).test(c))) {
+      const cells = norm
+        .trim()
+        .split(/\s*[|\t;]\s*|\s{2,}|\s+/)
+        .filter(Boolean);
+      if (
+        findLabels(norm).length === 0 &&
+        cells.length === pending.labels.length &&
+        cells.every((c) => new RegExp(`^[-+]?${NUM}(?:HH|LL|H|L|\\*)?$`).test(c))
+      ) {
         cells.forEach((cell, i) => {
           const label = pending.labels[i]!;
           const numberText = cell.replace(/(?:HH|LL|H|L|\*)$/, '');
           const n = parseNumber(numberText.replace(/^[-+]/, ''));
           const sourceText = `${pending.raw.trim()} / ${raw.trim()} (column ${i + 1})`;
-          if (label.skip) { col.skipped.push({ sourceText, reason: label.skip, line: lineNo }); return; }
+          if (label.skip) {
+            col.skipped.push({ sourceText, reason: label.skip, line: lineNo });
+            return;
+          }
           if (!label.path) return;
-          if (n === 'ambiguous') { col.questions.push({ path: label.path, reason: `"${numberText}" could be a decimal comma or a thousands separator`, sourceText }); return; }
-          col.candidates.push({ path: label.path, value: numberText.startsWith('-') ? -n : n, unit: label.unit, headerUnit: label.unit !== null, variant: label.variant, sourceText, line: lineNo });
+          if (n === 'ambiguous') {
+            col.questions.push({
+              path: label.path,
+              reason: `"${numberText}" could be a decimal comma or a thousands separator`,
+              sourceText,
+            });
+            return;
+          }
+          col.candidates.push({
+            path: label.path,
+            value: numberText.startsWith('-') ? -n : n,
+            unit: label.unit,
+            headerUnit: label.unit !== null,
+            variant: label.variant,
+            sourceText,
+            line: lineNo,
+          });
         });
         return;
       }
@@ -501,29 +796,56 @@ export function parsePaste(text: string): PasteResult {
       const sourceText = source(run.start, run.end);
       scan = scan.slice(0, run.start) + ' '.repeat(run.end - run.start) + scan.slice(run.end);
       if (run.parts.length !== 4) {
-        col.questions.push({ path: 'gas', reason: `${run.parts.length} numbers separated by "/": the shorthand pH/PaCO2/PaO2/HCO3 has four; enter the values one by one`, sourceText });
+        col.questions.push({
+          path: 'gas',
+          reason: `${run.parts.length} numbers separated by "/": the shorthand pH/PaCO2/PaO2/HCO3 has four; enter the values one by one`,
+          sourceText,
+        });
         continue;
       }
       const values = run.parts.map(shorthandNumber);
-      if (values.some((v) => Number.isNaN(v))) { col.questions.push({ path: 'gas', reason: 'a number in the shorthand could be a decimal comma or a thousands separator', sourceText }); continue; }
+      if (values.some((v) => Number.isNaN(v))) {
+        col.questions.push({
+          path: 'gas',
+          reason: 'a number in the shorthand could be a decimal comma or a thousands separator',
+          sourceText,
+        });
+        continue;
+      }
       const paths: CasePath[] = ['gas.ph', 'gas.pco2', 'gas.po2', 'gas.hco3'];
       paths.forEach((path, i) => {
         const v = values[i];
         if (v === null || v === undefined) return;
         const unit = path === 'gas.pco2' || path === 'gas.po2' ? run.unit : null;
-        col.candidates.push({ path, value: v, unit, headerUnit: false, variant: undefined, sourceText, line: lineNo });
+        col.candidates.push({
+          path,
+          value: v,
+          unit,
+          headerUnit: false,
+          variant: undefined,
+          sourceText,
+          line: lineNo,
+        });
       });
     }
 
     const labels = findLabels(scan);
     if (!labels.length) {
       if (STANDARD_SECTION.test(norm)) correctedSection = false;
-      else if (lineCorrected) { correctedSection = true; used = true; }
+      else if (lineCorrected) {
+        correctedSection = true;
+        used = true;
+      }
       if (!used) col.ignored.push(raw.trim());
       return;
     }
 
-    interface Parsed { match: LabelMatch; q: Qualifiers; seg: SegmentValue; text: string }
+    interface Parsed {
+      match: LabelMatch;
+      q: Qualifiers;
+      seg: SegmentValue;
+      text: string;
+    }
     const parsed: Parsed[] = labels.map((match, i) => {
       const q = readQualifiers(scan, match.end);
       const segEnd = labels[i + 1]?.start ?? scan.length;
@@ -534,12 +856,20 @@ export function parsePaste(text: string): PasteResult {
     // a header row: two or more labels and no value anywhere
     if (!used && parsed.length >= 2 && parsed.every((p) => p.seg.kind === 'none')) {
       header = {
-        raw, line: lineNo,
+        raw,
+        line: lineNo,
         labels: parsed.map((p) => {
           const t = p.match.def.target;
           if ('skip' in t) return { path: null, unit: null, variant: undefined, skip: t.skip };
-          if ('ask' in t) return { path: null, unit: null, variant: undefined, skip: 'asked about only when written beside its value' };
-          if (p.q.corrected || (correctedSection && GAS_PRESSURE_OR_PH.has(t.field))) return { path: null, unit: null, variant: undefined, skip: TEMPERATURE_CORRECTED };
+          if ('ask' in t)
+            return {
+              path: null,
+              unit: null,
+              variant: undefined,
+              skip: 'asked about only when written beside its value',
+            };
+          if (p.q.corrected || (correctedSection && GAS_PRESSURE_OR_PH.has(t.field)))
+            return { path: null, unit: null, variant: undefined, skip: TEMPERATURE_CORRECTED };
           return { path: t.field, unit: p.q.unit, variant: t.variant };
         }),
       };
@@ -556,30 +886,102 @@ export function parsePaste(text: string): PasteResult {
       const t = p.match.def.target;
       const seg = p.seg;
       if (seg.kind === 'none') return;
-      const accepted = (i === 0 && prefixOk) || (seg.kind === 'value' ? clean >= 2 || seg.unit !== null : clean >= 1);
-      if (!accepted) { fragments.push(p.text); return; }
+      const accepted =
+        (i === 0 && prefixOk) ||
+        (seg.kind === 'value' ? clean >= 2 || seg.unit !== null : clean >= 1);
+      if (!accepted) {
+        fragments.push(p.text);
+        return;
+      }
       used = true;
-      if ('skip' in t) { col.skipped.push({ sourceText: p.text, reason: t.skip, line: lineNo }); return; }
+      if ('skip' in t) {
+        col.skipped.push({ sourceText: p.text, reason: t.skip, line: lineNo });
+        return;
+      }
       const corrected = p.q.corrected || lineCorrected || correctedSection;
       if ('ask' in t) {
-        if (seg.kind !== 'value') { col.questions.push({ path: t.ask === 'baseDeficit' ? 'gas.baseExcess' : 'gas.po2', reason: seg.reason, sourceText: p.text }); return; }
-        if (t.ask === 'baseDeficit') {
-          col.questions.push({ path: 'gas.baseExcess', reason: `base deficit ${seg.value} read: base excess is usually its negative (${-seg.value}); confirm`, options: [String(-seg.value)], value: seg.value, sourceText: p.text });
+        if (seg.kind !== 'value') {
+          col.questions.push({
+            path: t.ask === 'baseDeficit' ? 'gas.baseExcess' : 'gas.po2',
+            reason: seg.reason,
+            sourceText: p.text,
+          });
           return;
         }
-        if (p.q.alveolar) { col.skipped.push({ sourceText: p.text, reason: 'alveolar PO2: Gasline works it out', line: lineNo }); return; }
-        if (corrected) { col.skipped.push({ sourceText: p.text, reason: TEMPERATURE_CORRECTED, line: lineNo }); return; }
-        const candidate: Candidate = { path: 'gas.po2', value: seg.value, unit: seg.unit, headerUnit: false, variant: undefined, sourceText: p.text, line: lineNo };
+        if (t.ask === 'baseDeficit') {
+          col.questions.push({
+            path: 'gas.baseExcess',
+            reason: `base deficit ${seg.value} read: base excess is usually its negative (${-seg.value}); confirm`,
+            options: [String(-seg.value)],
+            value: seg.value,
+            sourceText: p.text,
+          });
+          return;
+        }
+        if (p.q.alveolar) {
+          col.skipped.push({
+            sourceText: p.text,
+            reason: 'alveolar PO2: Gasline works it out',
+            line: lineNo,
+          });
+          return;
+        }
+        if (corrected) {
+          col.skipped.push({ sourceText: p.text, reason: TEMPERATURE_CORRECTED, line: lineNo });
+          return;
+        }
+        const candidate: Candidate = {
+          path: 'gas.po2',
+          value: seg.value,
+          unit: seg.unit,
+          headerUnit: false,
+          variant: undefined,
+          sourceText: p.text,
+          line: lineNo,
+        };
         if (capsConvention) col.candidates.push(candidate);
-        else col.questions.push({ path: 'gas.po2', reason: `"PAO2" can mean the alveolar PO2: confirm that ${seg.value} is the arterial PaO2`, options: ['arterial PaO2', 'alveolar PAO2'], value: seg.value, sourceText: p.text });
+        else
+          col.questions.push({
+            path: 'gas.po2',
+            reason: `"PAO2" can mean the alveolar PO2: confirm that ${seg.value} is the arterial PaO2`,
+            options: ['arterial PaO2', 'alveolar PAO2'],
+            value: seg.value,
+            sourceText: p.text,
+          });
         return;
       }
       if (GAS_PRESSURE_OR_PH.has(t.field)) {
-        if (p.q.alveolar) { col.skipped.push({ sourceText: p.text, reason: 'alveolar PO2: Gasline works it out', line: lineNo }); return; }
-        if (corrected) { col.skipped.push({ sourceText: p.text, reason: TEMPERATURE_CORRECTED, line: lineNo }); return; }
+        if (p.q.alveolar) {
+          col.skipped.push({
+            sourceText: p.text,
+            reason: 'alveolar PO2: Gasline works it out',
+            line: lineNo,
+          });
+          return;
+        }
+        if (corrected) {
+          col.skipped.push({ sourceText: p.text, reason: TEMPERATURE_CORRECTED, line: lineNo });
+          return;
+        }
       }
-      if (seg.kind === 'question') { col.questions.push({ path: t.field, reason: `${LABEL_OF[t.field]}: ${seg.reason}`, ...(seg.value !== undefined ? { value: seg.value } : {}), sourceText: p.text }); return; }
-      col.candidates.push({ path: t.field, value: seg.value, unit: seg.unit, headerUnit: false, variant: t.variant, sourceText: p.text, line: lineNo });
+      if (seg.kind === 'question') {
+        col.questions.push({
+          path: t.field,
+          reason: `${LABEL_OF[t.field]}: ${seg.reason}`,
+          ...(seg.value !== undefined ? { value: seg.value } : {}),
+          sourceText: p.text,
+        });
+        return;
+      }
+      col.candidates.push({
+        path: t.field,
+        value: seg.value,
+        unit: seg.unit,
+        headerUnit: false,
+        variant: t.variant,
+        sourceText: p.text,
+        line: lineNo,
+      });
     });
     col.ignored.push(...(used ? fragments : [raw.trim()]));
   });
@@ -591,7 +993,14 @@ export function parsePaste(text: string): PasteResult {
 
 // ---------- deciding ----------
 
-const VARIANT_RANK: Record<Variant, number> = { actual: 0, so2: 0, plain: 1, bun: 1, o2hb: 2, standard: 3 };
+const VARIANT_RANK: Record<Variant, number> = {
+  actual: 0,
+  so2: 0,
+  plain: 1,
+  bun: 1,
+  o2hb: 2,
+  standard: 3,
+};
 const VARIANT_NOTE: Partial<Record<Variant, string>> = {
   standard: 'standard base excess (no actual base excess on the paste)',
   o2hb: 'oxyhaemoglobin fraction (no sO2 on the paste); it runs slightly below sO2 when COHb or MetHb is raised',
@@ -606,11 +1015,29 @@ function resolve(col: Collector, result: PasteResult): void {
   const c = result.case;
   const questions = result.questions;
   const pending = new Set<string>();
-  const ask = (q: Question) => { questions.push(q); pending.add(q.path); };
-  const fill = (cand: Candidate, value: number, unit: string, unitFrom: UnitSource, units?: Partial<Units>, note?: string) => {
+  const ask = (q: Question) => {
+    questions.push(q);
+    pending.add(q.path);
+  };
+  const fill = (
+    cand: Candidate,
+    value: number,
+    unit: string,
+    unitFrom: UnitSource,
+    units?: Partial<Units>,
+    note?: string,
+  ) => {
     setCaseValue(c, cand.path, value);
     if (units) c.units = { ...c.units, ...units };
-    result.read.push({ path: cand.path, value, unit, sourceText: cand.sourceText, line: cand.line, unitFrom, ...(note ? { note } : {}) });
+    result.read.push({
+      path: cand.path,
+      value,
+      unit,
+      sourceText: cand.sourceText,
+      line: cand.line,
+      unitFrom,
+      ...(note ? { note } : {}),
+    });
   };
 
   for (const q of col.questions) ask(q);
@@ -621,22 +1048,48 @@ function resolve(col: Collector, result: PasteResult): void {
   const byPath = new Map<CasePath, Candidate[]>();
   for (const cand of col.candidates) {
     const list = byPath.get(cand.path);
-    if (list) list.push(cand); else byPath.set(cand.path, [cand]);
+    if (list) list.push(cand);
+    else byPath.set(cand.path, [cand]);
   }
   const chosen = new Map<CasePath, Candidate>();
   for (const [path, list] of byPath) {
-    if (pending.has(path)) { for (const cand of list) result.skipped.push({ sourceText: cand.sourceText, reason: 'not used while the question about this value is open', line: cand.line }); continue; }
-    const best = list.reduce((m, x) => Math.min(m, x.variant ? VARIANT_RANK[x.variant] : 1), Infinity);
+    if (pending.has(path)) {
+      for (const cand of list)
+        result.skipped.push({
+          sourceText: cand.sourceText,
+          reason: 'not used while the question about this value is open',
+          line: cand.line,
+        });
+      continue;
+    }
+    const best = list.reduce(
+      (m, x) => Math.min(m, x.variant ? VARIANT_RANK[x.variant] : 1),
+      Infinity,
+    );
     const top = list.filter((x) => (x.variant ? VARIANT_RANK[x.variant] : 1) === best);
     const inTop = new Set(top);
-    for (const x of list) if (!inTop.has(x)) result.skipped.push({ sourceText: x.sourceText, reason: VARIANT_SKIP[x.variant ?? 'plain'] ?? 'a less direct reading of the same value', line: x.line });
+    for (const x of list)
+      if (!inTop.has(x))
+        result.skipped.push({
+          sourceText: x.sourceText,
+          reason: VARIANT_SKIP[x.variant ?? 'plain'] ?? 'a less direct reading of the same value',
+          line: x.line,
+        });
     const distinct = new Map<string, Candidate>();
     for (const x of top) distinct.set(`${x.value}|${x.unit ?? ''}`, x);
     const values = new Set(top.map((x) => x.value));
     const unitsSeen = new Set(top.map((x) => x.unit).filter((u) => u !== null));
     if (values.size > 1 || unitsSeen.size > 1) {
       const shown = [...distinct.values()].slice(0, 6);
-      ask({ path, reason: `${LABEL_OF[path]} is written more than once with different values (${shown.map((x) => `${x.value}${x.unit ? ' ' + x.unit : ''}`).join(', ')}${distinct.size > shown.length ? ', ...' : ''}): which one is this sample?`, options: [...values].slice(0, 6).map(String), sourceText: top.slice(0, 6).map((x) => x.sourceText).join(' | ') });
+      ask({
+        path,
+        reason: `${LABEL_OF[path]} is written more than once with different values (${shown.map((x) => `${x.value}${x.unit ? ' ' + x.unit : ''}`).join(', ')}${distinct.size > shown.length ? ', ...' : ''}): which one is this sample?`,
+        options: [...values].slice(0, 6).map(String),
+        sourceText: top
+          .slice(0, 6)
+          .map((x) => x.sourceText)
+          .join(' | '),
+      });
       continue;
     }
     const withUnit = top.find((x) => x.unit !== null) ?? top[0]!;
@@ -656,58 +1109,102 @@ function resolve(col: Collector, result: PasteResult): void {
 }
 
 type Ask = (q: Question) => void;
-type Fill = (cand: Candidate, value: number, unit: string, unitFrom: UnitSource, units?: Partial<Units>, note?: string) => void;
+type Fill = (
+  cand: Candidate,
+  value: number,
+  unit: string,
+  unitFrom: UnitSource,
+  units?: Partial<Units>,
+  note?: string,
+) => void;
 
 const outside = (path: CasePath, cand: Candidate, unit: string): Question => {
   const range = RANGE_OF[path];
-  const shown = range ? ` (plausible range ${range.min}-${range.max}${range.unit ? ' ' + range.unit : ''})` : '';
-  return { path, reason: `${LABEL_OF[path]} ${cand.value}${unit ? ' ' + unit : ''} is not plausible${shown}: check the value and its unit`, value: cand.value, sourceText: cand.sourceText };
+  const shown = range
+    ? ` (plausible range ${range.min}-${range.max}${range.unit ? ' ' + range.unit : ''})`
+    : '';
+  return {
+    path,
+    reason: `${LABEL_OF[path]} ${cand.value}${unit ? ' ' + unit : ''} is not plausible${shown}: check the value and its unit`,
+    value: cand.value,
+    sourceText: cand.sourceText,
+  };
 };
 
-const wrongUnit = (path: CasePath, cand: Candidate, expected: string): Question =>
-  ({ path, reason: `${LABEL_OF[path]} ${cand.value} is given in ${cand.unit}; expected ${expected}`, value: cand.value, sourceText: cand.sourceText });
+const wrongUnit = (path: CasePath, cand: Candidate, expected: string): Question => ({
+  path,
+  reason: `${LABEL_OF[path]} ${cand.value} is given in ${cand.unit}; expected ${expected}`,
+  value: cand.value,
+  sourceText: cand.sourceText,
+});
 
 /** PaCO2 and PaO2 share the pressure unit of the case: decided together. */
-function decidePressures(chosen: Map<CasePath, Candidate>, result: PasteResult, ask: Ask, fill: Fill): void {
-  const cands = (['gas.pco2', 'gas.po2'] as const).map((p) => chosen.get(p)).filter((x): x is Candidate => !!x);
+function decidePressures(
+  chosen: Map<CasePath, Candidate>,
+  result: PasteResult,
+  ask: Ask,
+  fill: Fill,
+): void {
+  const cands = (['gas.pco2', 'gas.po2'] as const)
+    .map((p) => chosen.get(p))
+    .filter((x): x is Candidate => !!x);
   if (!cands.length) return;
   const bad = cands.filter((x) => x.unit !== null && x.unit !== 'kPa' && x.unit !== 'mmHg');
   for (const x of bad) ask(wrongUnit(x.path, x, 'kPa or mmHg'));
   const pressures = cands.filter((x) => !bad.includes(x));
   if (!pressures.length) return;
-  const explicit = new Set(pressures.map((x) => x.unit).filter((u): u is 'kPa' | 'mmHg' => u === 'kPa' || u === 'mmHg'));
+  const explicit = new Set(
+    pressures.map((x) => x.unit).filter((u): u is 'kPa' | 'mmHg' => u === 'kPa' || u === 'mmHg'),
+  );
   const windowOf = (x: Candidate) => (x.path === 'gas.pco2' ? WINDOWS.pco2 : WINDOWS.po2);
   const options = ['mmHg', 'kPa'];
 
   if (explicit.size === 2) {
-    for (const x of pressures) ask({ path: x.path, reason: `one pressure line says kPa and another mmHg: confirm the unit of ${LABEL_OF[x.path]} ${x.value}`, options, value: x.value, sourceText: x.sourceText });
+    for (const x of pressures)
+      ask({
+        path: x.path,
+        reason: `one pressure line says kPa and another mmHg: confirm the unit of ${LABEL_OF[x.path]} ${x.value}`,
+        options,
+        value: x.value,
+        sourceText: x.sourceText,
+      });
     return;
   }
   if (explicit.size === 1) {
     const unit = [...explicit][0]!;
     for (const x of pressures) {
       if (x.unit !== null) {
-        if (passesSchema(x.path, x.value, { pressure: unit })) fill(x, x.value, unit, x.headerUnit ? 'printout' : 'text', { pressure: unit });
+        if (passesSchema(x.path, x.value, { pressure: unit }))
+          fill(x, x.value, unit, x.headerUnit ? 'printout' : 'text', { pressure: unit });
         else ask(outside(x.path, x, unit));
       } else if (inWindow(x.value, windowOf(x)[unit])) {
         fill(x, x.value, unit, 'printout', { pressure: unit });
       } else {
-        ask({ path: x.path, reason: `${LABEL_OF[x.path]} ${x.value} has no unit and is not plausible in ${unit}, the unit of the other pressure`, options, value: x.value, sourceText: x.sourceText });
+        ask({
+          path: x.path,
+          reason: `${LABEL_OF[x.path]} ${x.value} has no unit and is not plausible in ${unit}, the unit of the other pressure`,
+          options,
+          value: x.value,
+          sourceText: x.sourceText,
+        });
       }
     }
     return;
   }
   // no unit anywhere: the unit in which every pressure is plausible
-  const fits = (['mmHg', 'kPa'] as const).filter((u) => pressures.every((x) => inWindow(x.value, windowOf(x)[u])));
+  const fits = (['mmHg', 'kPa'] as const).filter((u) =>
+    pressures.every((x) => inWindow(x.value, windowOf(x)[u])),
+  );
   if (fits.length === 1) {
     const unit = fits[0]!;
     for (const x of pressures) fill(x, x.value, unit, 'magnitude', { pressure: unit });
     return;
   }
   for (const x of pressures) {
-    const reason = fits.length === 2
-      ? `${LABEL_OF[x.path]} ${x.value} has no unit: ${x.value} mmHg and ${x.value} kPa (${Math.round(kpaToMmHg(x.value))} mmHg) are both possible`
-      : `${LABEL_OF[x.path]} ${x.value} has no unit, and the pressures together are not plausible in either mmHg or kPa`;
+    const reason =
+      fits.length === 2
+        ? `${LABEL_OF[x.path]} ${x.value} has no unit: ${x.value} mmHg and ${x.value} kPa (${Math.round(kpaToMmHg(x.value))} mmHg) are both possible`
+        : `${LABEL_OF[x.path]} ${x.value} has no unit, and the pressures together are not plausible in either mmHg or kPa`;
     ask({ path: x.path, reason, options, value: x.value, sourceText: x.sourceText });
   }
 }
@@ -716,15 +1213,31 @@ function decideOne(path: CasePath, cand: Candidate, ask: Ask, fill: Fill): void 
   const { value, unit } = cand;
   const from: UnitSource = cand.headerUnit ? 'printout' : 'text';
   const single = (allowed: UnitToken | null, label: string) => {
-    if (unit !== null && unit !== allowed) { ask(wrongUnit(path, cand, allowed ?? 'no unit')); return; }
-    if (!passesSchema(path, value, {})) { ask(outside(path, cand, label)); return; }
+    if (unit !== null && unit !== allowed) {
+      ask(wrongUnit(path, cand, allowed ?? 'no unit'));
+      return;
+    }
+    if (!passesSchema(path, value, {})) {
+      ask(outside(path, cand, label));
+      return;
+    }
     fill(cand, value, label, unit === null ? 'implied' : from);
   };
-  const byWindow = (windows: Record<string, Window>, choose: (u: string) => { label: string; units?: Partial<Units> } | null, what: string) => {
+  const byWindow = (
+    windows: Record<string, Window>,
+    choose: (u: string) => { label: string; units?: Partial<Units> } | null,
+    what: string,
+  ) => {
     if (unit !== null) {
       const chosen = choose(unit);
-      if (!chosen) { ask(wrongUnit(path, cand, what)); return; }
-      if (!passesSchema(path, value, chosen.units ?? {})) { ask(outside(path, cand, chosen.label)); return; }
+      if (!chosen) {
+        ask(wrongUnit(path, cand, what));
+        return;
+      }
+      if (!passesSchema(path, value, chosen.units ?? {})) {
+        ask(outside(path, cand, chosen.label));
+        return;
+      }
       fill(cand, value, chosen.label, from, chosen.units);
       return;
     }
@@ -732,73 +1245,205 @@ function decideOne(path: CasePath, cand: Candidate, ask: Ask, fill: Fill): void 
     const usable = fits.map((u) => ({ u, c: choose(u) })).filter((x) => x.c !== null);
     if (fits.length === 1 && usable.length === 1) {
       const c = usable[0]!.c!;
-      if (!passesSchema(path, value, c.units ?? {})) { ask(outside(path, cand, c.label)); return; }
+      if (!passesSchema(path, value, c.units ?? {})) {
+        ask(outside(path, cand, c.label));
+        return;
+      }
       fill(cand, value, c.label, 'magnitude', c.units);
       return;
     }
-    ask({ path, reason: fits.length > 1 ? `${LABEL_OF[path]} ${value} has no unit and fits ${fits.join(' or ')}` : `${LABEL_OF[path]} ${value} has no unit and is not plausible in ${Object.keys(windows).join(' or ')}`, options: Object.keys(windows), value, sourceText: cand.sourceText });
+    ask({
+      path,
+      reason:
+        fits.length > 1
+          ? `${LABEL_OF[path]} ${value} has no unit and fits ${fits.join(' or ')}`
+          : `${LABEL_OF[path]} ${value} has no unit and is not plausible in ${Object.keys(windows).join(' or ')}`,
+      options: Object.keys(windows),
+      value,
+      sourceText: cand.sourceText,
+    });
   };
 
   switch (path) {
     case 'gas.ph':
-      if (unit !== null) { ask(wrongUnit(path, cand, 'no unit')); return; }
-      if (!passesSchema(path, value, {})) { ask(outside(path, cand, '')); return; }
+      if (unit !== null) {
+        ask(wrongUnit(path, cand, 'no unit'));
+        return;
+      }
+      if (!passesSchema(path, value, {})) {
+        ask(outside(path, cand, ''));
+        return;
+      }
       fill(cand, value, '', 'implied');
       return;
-    case 'gas.hco3': case 'gas.baseExcess': case 'chemistry.na': case 'chemistry.k': case 'chemistry.cl': {
+    case 'gas.hco3':
+    case 'gas.baseExcess':
+    case 'chemistry.na':
+    case 'chemistry.k':
+    case 'chemistry.cl': {
       const note = cand.variant ? VARIANT_NOTE[cand.variant] : undefined;
-      if (unit !== null && unit !== 'mmol/L') { ask(wrongUnit(path, cand, 'mmol/L')); return; }
-      if (!passesSchema(path, value, {})) { ask(outside(path, cand, 'mmol/L')); return; }
+      if (unit !== null && unit !== 'mmol/L') {
+        ask(wrongUnit(path, cand, 'mmol/L'));
+        return;
+      }
+      if (!passesSchema(path, value, {})) {
+        ask(outside(path, cand, 'mmol/L'));
+        return;
+      }
       fill(cand, value, 'mmol/L', unit === null ? 'implied' : from, undefined, note);
       return;
     }
     case 'gas.lactate':
-      if (unit === 'mg/dL') { ask({ path, reason: `Lactate ${value} mg/dL: the case takes lactate in mmol/L (mmol/L = mg/dL / 9.01, molar mass 90.08); enter it converted`, value, sourceText: cand.sourceText }); return; }
+      if (unit === 'mg/dL') {
+        ask({
+          path,
+          reason: `Lactate ${value} mg/dL: the case takes lactate in mmol/L (mmol/L = mg/dL / 9.01, molar mass 90.08); enter it converted`,
+          value,
+          sourceText: cand.sourceText,
+        });
+        return;
+      }
       // blood-gas analysers report lactate in mmol/L (common practice); the one unit the case takes
       single('mmol/L', 'mmol/L');
       return;
-    case 'gas.sao2': case 'oxygen.spo2': {
-      if (unit !== null && unit !== '%') { ask(wrongUnit(path, cand, '%')); return; }
-      if (value > 0 && value <= 1) { ask({ path, reason: `${LABEL_OF[path]} ${value} looks like a fraction: is it ${Math.round(value * 1000) / 10} %?`, options: [String(Math.round(value * 1000) / 10)], value, sourceText: cand.sourceText }); return; }
-      if (!passesSchema(path, value, {})) { ask(outside(path, cand, '%')); return; }
+    case 'gas.sao2':
+    case 'oxygen.spo2': {
+      if (unit !== null && unit !== '%') {
+        ask(wrongUnit(path, cand, '%'));
+        return;
+      }
+      if (value > 0 && value <= 1) {
+        ask({
+          path,
+          reason: `${LABEL_OF[path]} ${value} looks like a fraction: is it ${Math.round(value * 1000) / 10} %?`,
+          options: [String(Math.round(value * 1000) / 10)],
+          value,
+          sourceText: cand.sourceText,
+        });
+        return;
+      }
+      if (!passesSchema(path, value, {})) {
+        ask(outside(path, cand, '%'));
+        return;
+      }
       const note = cand.variant ? VARIANT_NOTE[cand.variant] : undefined;
       fill(cand, value, '%', unit === null ? 'implied' : from, undefined, note);
       return;
     }
     case 'chemistry.osmolality':
-      if (unit === 'mOsm/L') { ask({ path, reason: `Osmolality ${value} mOsm/L: osmolarity is usually calculated; the case takes the measured osmolality in mOsm/kg`, value, sourceText: cand.sourceText }); return; }
+      if (unit === 'mOsm/L') {
+        ask({
+          path,
+          reason: `Osmolality ${value} mOsm/L: osmolarity is usually calculated; the case takes the measured osmolality in mOsm/kg`,
+          value,
+          sourceText: cand.sourceText,
+        });
+        return;
+      }
       single('mOsm/kg', 'mOsm/kg');
       return;
     case 'oxygen.fio2': {
-      if (unit !== null && unit !== '%') { ask(wrongUnit(path, cand, '% or a fraction')); return; }
-      if (unit === '%' && value <= 1) { ask({ path, reason: `FiO2 ${value} % is not plausible: was it a fraction?`, value, sourceText: cand.sourceText }); return; }
-      if (!passesSchema(path, value, {})) { ask({ path, reason: `FiO2 ${value} is neither a fraction (0.21-1.00) nor a percent (21-100)`, value, sourceText: cand.sourceText }); return; }
+      if (unit !== null && unit !== '%') {
+        ask(wrongUnit(path, cand, '% or a fraction'));
+        return;
+      }
+      if (unit === '%' && value <= 1) {
+        ask({
+          path,
+          reason: `FiO2 ${value} % is not plausible: was it a fraction?`,
+          value,
+          sourceText: cand.sourceText,
+        });
+        return;
+      }
+      if (!passesSchema(path, value, {})) {
+        ask({
+          path,
+          reason: `FiO2 ${value} is neither a fraction (0.21-1.00) nor a percent (21-100)`,
+          value,
+          sourceText: cand.sourceText,
+        });
+        return;
+      }
       fill(cand, value, value > 1 ? '%' : 'fraction', unit === null ? 'implied' : from);
       return;
     }
     case 'gas.hb':
-      if (unit === 'mmol/L') { ask({ path, reason: `Hb ${value} mmol/L: the case takes Hb in g/dL or g/L; enter it converted`, value, sourceText: cand.sourceText }); return; }
-      byWindow(WINDOWS.hb, (u) => (u === 'g/dL' || u === 'g/L' ? { label: u, units: { hb: u } } : null), 'g/dL or g/L');
+      if (unit === 'mmol/L') {
+        ask({
+          path,
+          reason: `Hb ${value} mmol/L: the case takes Hb in g/dL or g/L; enter it converted`,
+          value,
+          sourceText: cand.sourceText,
+        });
+        return;
+      }
+      byWindow(
+        WINDOWS.hb,
+        (u) => (u === 'g/dL' || u === 'g/L' ? { label: u, units: { hb: u } } : null),
+        'g/dL or g/L',
+      );
       return;
     case 'chemistry.albumin':
-      byWindow(WINDOWS.albumin, (u) => (u === 'g/dL' || u === 'g/L' ? { label: u, units: { albumin: u } } : null), 'g/dL or g/L');
+      byWindow(
+        WINDOWS.albumin,
+        (u) => (u === 'g/dL' || u === 'g/L' ? { label: u, units: { albumin: u } } : null),
+        'g/dL or g/L',
+      );
       return;
     case 'chemistry.glucose':
-      byWindow(WINDOWS.glucose, (u) => (u === 'mg/dL' || u === 'mmol/L' ? { label: u, units: { glucose: u } } : null), 'mmol/L or mg/dL');
+      byWindow(
+        WINDOWS.glucose,
+        (u) => (u === 'mg/dL' || u === 'mmol/L' ? { label: u, units: { glucose: u } } : null),
+        'mmol/L or mg/dL',
+      );
       return;
     case 'chemistry.creatinine':
-      byWindow(WINDOWS.creatinine, (u) => (u === 'mg/dL' ? { label: 'mg/dL', units: { creatinine: 'mg/dL' } } : u === 'umol/L' ? { label: 'µmol/L', units: { creatinine: 'umol/L' } } : null), 'µmol/L or mg/dL');
+      byWindow(
+        WINDOWS.creatinine,
+        (u) =>
+          u === 'mg/dL'
+            ? { label: 'mg/dL', units: { creatinine: 'mg/dL' } }
+            : u === 'umol/L'
+              ? { label: 'µmol/L', units: { creatinine: 'umol/L' } }
+              : null,
+        'µmol/L or mg/dL',
+      );
       return;
     case 'chemistry.urea': {
       const isBun = cand.variant === 'bun';
       if (isBun) {
-        if (unit !== null && unit !== 'mg/dL') { ask({ path, reason: `BUN ${value} ${unit}: urea nitrogen is taken in mg/dL; enter urea in mmol/L by hand if that is meant`, value, sourceText: cand.sourceText }); return; }
-        if (!passesSchema(path, value, { urea: 'bun-mg/dL' })) { ask(outside(path, cand, 'mg/dL')); return; }
+        if (unit !== null && unit !== 'mg/dL') {
+          ask({
+            path,
+            reason: `BUN ${value} ${unit}: urea nitrogen is taken in mg/dL; enter urea in mmol/L by hand if that is meant`,
+            value,
+            sourceText: cand.sourceText,
+          });
+          return;
+        }
+        if (!passesSchema(path, value, { urea: 'bun-mg/dL' })) {
+          ask(outside(path, cand, 'mg/dL'));
+          return;
+        }
         fill(cand, value, 'mg/dL (BUN)', unit === null ? 'implied' : from, { urea: 'bun-mg/dL' });
         return;
       }
-      if (unit === 'mg/dL') { ask({ path, reason: `Urea ${value} mg/dL: is it urea nitrogen (BUN) or urea itself (BUN = urea x 0.467)?`, options: ['BUN mg/dL', 'urea mg/dL'], value, sourceText: cand.sourceText }); return; }
-      byWindow(WINDOWS.urea, (u) => (u === 'mmol/L' ? { label: 'mmol/L (urea)', units: { urea: 'urea-mmol/L' } } : null), 'mmol/L');
+      if (unit === 'mg/dL') {
+        ask({
+          path,
+          reason: `Urea ${value} mg/dL: is it urea nitrogen (BUN) or urea itself (BUN = urea x 0.467)?`,
+          options: ['BUN mg/dL', 'urea mg/dL'],
+          value,
+          sourceText: cand.sourceText,
+        });
+        return;
+      }
+      byWindow(
+        WINDOWS.urea,
+        (u) => (u === 'mmol/L' ? { label: 'mmol/L (urea)', units: { urea: 'urea-mmol/L' } } : null),
+        'mmol/L',
+      );
       return;
     }
     default:
@@ -808,15 +1453,21 @@ function decideOne(path: CasePath, cand: Candidate, ask: Ask, fill: Fill): void 
 
 /** For an open PaCO2 unit question, the Henderson equation with the pH and HCO3 read may point to one unit. */
 function addHendersonSuggestion(result: PasteResult): void {
-  const ph = result.case.gas.ph, hco3 = result.case.gas.hco3;
+  const ph = result.case.gas.ph,
+    hco3 = result.case.gas.hco3;
   if (ph === undefined || hco3 === undefined) return;
   const expected = hendersonPco2(hydrogenIon(ph), hco3); // mmHg
   for (const q of result.questions) {
     if (q.path !== 'gas.pco2' || q.value === undefined || !q.options?.includes('kPa')) continue;
     // within 10%: the consistency limit of clinical-scope section 2
     const near = (mmHg: number) => Math.abs(mmHg - expected) / expected <= 0.1;
-    const hits = [near(q.value) ? 'mmHg' : null, near(kpaToMmHg(q.value)) ? 'kPa' : null].filter((x): x is string => x !== null);
-    if (hits.length === 1) { q.suggested = hits[0]!; q.reason += ` (with the pH and HCO3 read, ${hits[0]} fits the Henderson equation)`; }
+    const hits = [near(q.value) ? 'mmHg' : null, near(kpaToMmHg(q.value)) ? 'kPa' : null].filter(
+      (x): x is string => x !== null,
+    );
+    if (hits.length === 1) {
+      q.suggested = hits[0]!;
+      q.reason += ` (with the pH and HCO3 read, ${hits[0]} fits the Henderson equation)`;
+    }
   }
 }
 
@@ -830,8 +1481,19 @@ function decideSample(col: Collector, result: PasteResult, ask: Ask): void {
     return;
   }
   if (kinds.length > 1) {
-    ask({ path: 'sample', reason: `the paste names more than one sample type (${kinds.join(', ')}): which one is this gas?`, options: kinds, sourceText: col.samples.map((s) => s.sourceText).join(' | ') });
+    ask({
+      path: 'sample',
+      reason: `the paste names more than one sample type (${kinds.join(', ')}): which one is this gas?`,
+      options: kinds,
+      sourceText: col.samples.map((s) => s.sourceText).join(' | '),
+    });
     return;
   }
-  if (anyGas) ask({ path: 'sample', reason: 'the paste does not say whether the sample is arterial, venous or capillary (without it the gas is read as arterial)', options: ['arterial', 'venous', 'capillary'] });
+  if (anyGas)
+    ask({
+      path: 'sample',
+      reason:
+        'the paste does not say whether the sample is arterial, venous or capillary (without it the gas is read as arterial)',
+      options: ['arterial', 'venous', 'capillary'],
+    });
 }

@@ -12,20 +12,37 @@ const read = (c: unknown): Findings => {
 
 // Invented: a 58-year-old man, 178 cm, ventilated after abdominal surgery; RR raised from 14 to 20 at VT 480.
 const man = { sex: 'male', heightCm: 178, ageYears: 58 } as const;
-const before = { takenAt: '2026-05-10T02:00', gas: { ph: 7.26, pco2: 58, hco3: 25.3 }, ventilator: { vt: 480, rr: 14 } };
+const before = {
+  takenAt: '2026-05-10T02:00',
+  gas: { ph: 7.26, pco2: 58, hco3: 25.3 },
+  ventilator: { vt: 480, rr: 14 },
+};
 const after = (pco2: number, ph: number, hco3: number) => ({
-  gas: { ph, pco2, hco3 }, patient: man, oxygen: { fio2: 0.4, peep: 8 }, ventilator: { vt: 480, rr: 20 }, previous: [before],
+  gas: { ph, pco2, hco3 },
+  patient: man,
+  oxygen: { fio2: 0.4, peep: 8 },
+  ventilator: { vt: 480, rr: 20 },
+  previous: [before],
 });
 
 describe('changes since the last gas', () => {
   it('lists each value before and after, with the change', () => {
     const f = read(after(41, 7.38, 23.8));
-    expect(f.changes.find((x) => x.field === 'pco2')).toEqual({ field: 'pco2', from: 58, to: 41, change: -17 });
+    expect(f.changes.find((x) => x.field === 'pco2')).toEqual({
+      field: 'pco2',
+      from: 58,
+      to: 41,
+      change: -17,
+    });
     expect(f.changes.find((x) => x.field === 'ph')?.change).toBeCloseTo(0.12, 10);
   });
 
   it('the latest earlier gas by takenAt is the one compared, whatever the order entered', () => {
-    const older = { takenAt: '2026-05-09T22:00', gas: { ph: 7.20, pco2: 66, hco3: 25.3 }, ventilator: { vt: 480, rr: 12 } };
+    const older = {
+      takenAt: '2026-05-09T22:00',
+      gas: { ph: 7.2, pco2: 66, hco3: 25.3 },
+      ventilator: { vt: 480, rr: 12 },
+    };
     const f = read({ ...after(41, 7.38, 23.8), previous: [before, older] });
     expect(f.serial?.last.takenAt).toBe('2026-05-10T02:00');
     expect(f.previous.map((p) => p.takenAt)).toEqual(['2026-05-09T22:00', '2026-05-10T02:00']);
@@ -55,7 +72,10 @@ describe('predicted against observed PaCO2 after a ventilator change', () => {
     // PBW = 50 + 0.91 x (178 - 152.4) = 73.3 kg; VD 161 mL; VA before 14 x (480 - 161) = 4.47 L/min,
     // after 14 x (560 - 161) = 5.59 L/min; predicted 58 x 4.47 / 5.59 = 46.4 mmHg
     const f = read({ ...after(46, 7.33, 23.9), ventilator: { vt: 560, rr: 14 } });
-    expect(f.serial?.prediction?.predicted).toBeCloseTo(58 * (480 - 2.2 * 73.296) / (560 - 2.2 * 73.296), 6);
+    expect(f.serial?.prediction?.predicted).toBeCloseTo(
+      (58 * (480 - 2.2 * 73.296)) / (560 - 2.2 * 73.296),
+      6,
+    );
     expect(f.derived.predictedPco2).toBeCloseTo(46.4, 1);
   });
 
@@ -66,7 +86,7 @@ describe('predicted against observed PaCO2 after a ventilator change', () => {
   });
 
   it('unchanged settings: nothing to predict', () => {
-    const f = read({ ...after(50, 7.30, 24.1), ventilator: { vt: 480, rr: 14 } });
+    const f = read({ ...after(50, 7.3, 24.1), ventilator: { vt: 480, rr: 14 } });
     expect(f.serial?.predictionUnavailable).toBe('settings_unchanged');
   });
 

@@ -11,17 +11,25 @@ const read = (c: unknown): Findings => {
 const named = (f: Findings) => f.disorders.map((d) => d.code);
 
 // Invented: a 19-year-old in the emergency department with ketoacidosis, venous gas.
-const ketoacidosis = { gas: { ph: 7.15, pco2: 25, hco3: 8.5 }, chemistry: { na: 134, cl: 98, albumin: 4.2 } };
+const ketoacidosis = {
+  gas: { ph: 7.15, pco2: 25, hco3: 8.5 },
+  chemistry: { na: 134, cl: 98, albumin: 4.2 },
+};
 
 describe('venous compensation judgement', () => {
   it('Winters 1.5 x 8.5 + 8 = 20.75 +/- 2: a venous PCO2 of 25 (arterial about 19-21) fits it', () => {
     const f = read({ ...ketoacidosis, sample: 'venous' });
-    expect(f.compensation).toMatchObject({ rule: 'winters', expected: { low: 18.75, high: 22.75 }, verdict: 'within', pco2Basis: 'venous_estimate' });
+    expect(f.compensation).toMatchObject({
+      rule: 'winters',
+      expected: { low: 18.75, high: 22.75 },
+      verdict: 'within',
+      pco2Basis: 'venous_estimate',
+    });
     expect(named(f)).toEqual(['metabolic_acidosis']);
   });
 
   it('the same numbers as an arterial gas are judged as measured', () => {
-    const f = read({ ...ketoacidosis, sample: 'arterial', gas: { ph: 7.10, pco2: 28, hco3: 8.5 } });
+    const f = read({ ...ketoacidosis, sample: 'arterial', gas: { ph: 7.1, pco2: 28, hco3: 8.5 } });
     // arterial PaCO2 28 > 22.75: added respiratory acidosis (Albert, Dell and Winters 1967)
     expect(f.compensation).toMatchObject({ verdict: 'above', pco2Basis: 'measured' });
     expect(named(f)).toEqual(['metabolic_acidosis', 'respiratory_acidosis']);
@@ -49,8 +57,14 @@ describe('venous compensation judgement', () => {
 
 describe('a ventilator target below any plausible PaCO2', () => {
   it('target pH 7.60 at HCO3 6.1: PaCO2_t = 25.1 x (6.1 - 2.0) / (24 - 2.51) = 4.8 mmHg, below the 20 mmHg floor: not reachable', () => {
-    const f = read({ gas: { ph: 7.1, pco2: 20, hco3: 6.1 }, patient: { sex: 'male', heightCm: 180 }, ventilator: { vt: 500, rr: 20, targetPh: 7.6 } });
-    expect(f.flags.find((x) => x.code === 'target_not_reachable')?.values).toMatchObject({ targetPh: 7.6 });
+    const f = read({
+      gas: { ph: 7.1, pco2: 20, hco3: 6.1 },
+      patient: { sex: 'male', heightCm: 180 },
+      ventilator: { vt: 500, rr: 20, targetPh: 7.6 },
+    });
+    expect(f.flags.find((x) => x.code === 'target_not_reachable')?.values).toMatchObject({
+      targetPh: 7.6,
+    });
     expect(f.derived.targetPco2).toBeNull();
     expect(f.derived.suggestedRr).toBeNull();
   });

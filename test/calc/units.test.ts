@@ -32,7 +32,9 @@ describe('concentrations: mass to moles with the molar mass (UCUM with molecular
     [180.16, 'one millimole of glucose per decilitre x 10'],
     [400, 'hyperglycaemia'],
   ])('glucose %s mg/dL to mmol/L (molar mass 180.16, clinical-scope section 1): %s', (mgDl) => {
-    expect(relative(u.glucoseMgDlToMmolL(mgDl), ucum('mg/dL', mgDl, 'mmol/L', MOLAR_MASS.glucose))).toBeLessThan(1e-9);
+    expect(
+      relative(u.glucoseMgDlToMmolL(mgDl), ucum('mg/dL', mgDl, 'mmol/L', MOLAR_MASS.glucose)),
+    ).toBeLessThan(1e-9);
   });
 
   it('glucose 90 mg/dL is 5.0 mmol/L (common practice)', () => {
@@ -45,27 +47,54 @@ describe('concentrations: mass to moles with the molar mass (UCUM with molecular
     [100, 'renal failure'],
   ])('BUN %s mg/dL to urea mmol/L (N2 28.01 g/mol, clinical-scope section 1): %s', (bun) => {
     // BUN is the nitrogen of urea: one mole of urea holds one mole of N2, so the molar mass of N2 converts it
-    expect(relative(u.bunMgDlToUreaMmolL(bun), ucum('mg/dL', bun, 'mmol/L', MOLAR_MASS.ureaNitrogen))).toBeLessThan(1e-9);
+    expect(
+      relative(u.bunMgDlToUreaMmolL(bun), ucum('mg/dL', bun, 'mmol/L', MOLAR_MASS.ureaNitrogen)),
+    ).toBeLessThan(1e-9);
   });
 
-  it.each([[1.0], [0.7], [5.2]])('creatinine %s mg/dL to umol/L (113.12 g/mol; 88.4 per mg/dL, clinical-scope section 1)', (mgDl) => {
-    expect(relative(u.creatinineMgDlToUmolL(mgDl), ucum('mg/dL', mgDl, 'umol/L', MOLAR_MASS.creatinine))).toBeLessThan(1e-4);
-  });
+  it.each([[1.0], [0.7], [5.2]])(
+    'creatinine %s mg/dL to umol/L (113.12 g/mol; 88.4 per mg/dL, clinical-scope section 1)',
+    (mgDl) => {
+      expect(
+        relative(
+          u.creatinineMgDlToUmolL(mgDl),
+          ucum('mg/dL', mgDl, 'umol/L', MOLAR_MASS.creatinine),
+        ),
+      ).toBeLessThan(1e-4);
+    },
+  );
 
-  it.each([[10], [21.7], [80]])('ethanol %s mmol/L to mg/dL (46.07 g/mol, IUPAC atomic weights)', (mmolL) => {
-    expect(relative(u.ethanolMmolLToMgDl(mmolL), ucum('mmol/L', mmolL, 'mg/dL', MOLAR_MASS.ethanol))).toBeLessThan(1e-9);
-  });
+  it.each([[10], [21.7], [80]])(
+    'ethanol %s mmol/L to mg/dL (46.07 g/mol, IUPAC atomic weights)',
+    (mmolL) => {
+      expect(
+        relative(u.ethanolMmolLToMgDl(mmolL), ucum('mmol/L', mmolL, 'mg/dL', MOLAR_MASS.ethanol)),
+      ).toBeLessThan(1e-9);
+    },
+  );
 
-  it.each([[35], [42], [15]])('albumin and Hb %s g/L to g/dL (g/L = 10 x g/dL, clinical-scope section 1)', (gL) => {
-    expect(u.gPerLToGPerDl(gL)).toBeCloseTo(ucum('g/L', gL, 'g/dL'), 12);
-  });
+  it.each([[35], [42], [15]])(
+    'albumin and Hb %s g/L to g/dL (g/L = 10 x g/dL, clinical-scope section 1)',
+    (gL) => {
+      expect(u.gPerLToGPerDl(gL)).toBeCloseTo(ucum('g/L', gL, 'g/dL'), 12);
+    },
+  );
 });
 
 describe('the edge conversion round-trips and labels', () => {
   const kinds = ['pressure', 'albumin', 'hb', 'glucose', 'urea', 'creatinine', 'ethanol'] as const;
-  const other: u.Units = { pressure: 'kPa', albumin: 'g/L', hb: 'g/L', glucose: 'mmol/L', urea: 'urea-mmol/L', creatinine: 'umol/L', ethanol: 'mmol/L' };
+  const other: u.Units = {
+    pressure: 'kPa',
+    albumin: 'g/L',
+    hb: 'g/L',
+    glucose: 'mmol/L',
+    urea: 'urea-mmol/L',
+    creatinine: 'umol/L',
+    ethanol: 'mmol/L',
+  };
   it.each(kinds)('%s: fromCanonical(toCanonical(x)) = x in both unit systems', (kind) => {
-    for (const units of [u.DEFAULT_UNITS, other]) expect(u.fromCanonical(kind, u.toCanonical(kind, 12.3, units), units)).toBeCloseTo(12.3, 9);
+    for (const units of [u.DEFAULT_UNITS, other])
+      expect(u.fromCanonical(kind, u.toCanonical(kind, 12.3, units), units)).toBeCloseTo(12.3, 9);
   });
 
   it('the canonical units are mmHg, g/dL, mmol/L and umol/L (clinical-scope: convert at the edge, once)', () => {
@@ -80,7 +109,13 @@ describe('the edge conversion round-trips and labels', () => {
 
 describe('FiO2: a fraction 0.21-1.00 or a percent 21-100 (clinical-scope section 1)', () => {
   it.each([
-    [0.21, 0.21], [0.4, 0.4], [1, 1], [21, 0.21], [40, 0.4], [100, 1], [60.5, 0.605],
+    [0.21, 0.21],
+    [0.4, 0.4],
+    [1, 1],
+    [21, 0.21],
+    [40, 0.4],
+    [100, 1],
+    [60.5, 0.605],
   ])('entered %s is the fraction %s', (entered, fraction) => {
     expect(u.fio2Fraction(entered)).toBeCloseTo(fraction, 12);
   });

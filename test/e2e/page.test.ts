@@ -3,23 +3,41 @@
 // critical violation) and photographed into screenshots/ (regenerate: npx vitest run test/e2e).
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { apiNote, browserGate, focusedId, openSession, startHarness, waitOpen, type Harness, type Session } from './harness.ts';
+import {
+  apiNote,
+  browserGate,
+  focusedId,
+  openSession,
+  startHarness,
+  waitOpen,
+  type Harness,
+  type Session,
+} from './harness.ts';
 
 /** A number field by its label; the label also carries the unit ("HCO3 mmol/L"). */
-const num = (page: Page, label: string) => page.getByRole('textbox', { name: new RegExp(`^${label.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}( |$)`) });
+const num = (page: Page, label: string) =>
+  page.getByRole('textbox', {
+    name: new RegExp(`^${label.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}( |$)`),
+  });
 
 const run = browserGate('test/e2e/page.test.ts');
 
 describe.skipIf(!run)('the step-by-step page in Chromium', () => {
   let h: Harness;
-  beforeAll(async () => { h = await startHarness(); });
-  afterAll(async () => { await h?.close(); });
+  beforeAll(async () => {
+    h = await startHarness();
+  });
+  afterAll(async () => {
+    await h?.close();
+  });
 
   const noteText = (s: Session) => s.page.locator('#note-text').inputValue();
 
   async function copyNote(s: Session): Promise<string> {
     await s.page.getByRole('button', { name: 'Copy note' }).click();
-    await expect.poll(() => s.page.locator('#announce').textContent()).toBe('Note copied to the clipboard.');
+    await expect
+      .poll(() => s.page.locator('#announce').textContent())
+      .toBe('Note copied to the clipboard.');
     return s.page.evaluate(() => navigator.clipboard.readText());
   }
 
@@ -35,7 +53,8 @@ describe.skipIf(!run)('the step-by-step page in Chromium', () => {
     const { page } = s;
     await page.goto(`${h.origin}/`);
     expect(await page.title()).toBe('Sample · Gasline');
-    await s.axe('sample'); await s.shot('sample');
+    await s.axe('sample');
+    await s.shot('sample');
 
     // the first choice has the focus: Enter answers it
     expect(await page.evaluate(() => document.activeElement?.textContent)).toBe('Arterial');
@@ -46,19 +65,27 @@ describe.skipIf(!run)('the step-by-step page in Chromium', () => {
     // the pressure unit sits just before pH: back one stop, arrow to kPa, on again
     await page.keyboard.press('Shift+Tab');
     await page.keyboard.press('ArrowRight');
-    expect(await page.locator('[data-unit-for="units.pressure"]').first().textContent()).toBe('kPa');
+    expect(await page.locator('[data-unit-for="units.pressure"]').first().textContent()).toBe(
+      'kPa',
+    );
     await page.keyboard.press('Tab');
     await page.keyboard.press('Tab');
     await page.keyboard.type('7.6');
-    await page.keyboard.press('Tab'); await page.keyboard.type('8.9');
-    await page.keyboard.press('Tab'); await page.keyboard.type('26');
-    await s.axe('gas'); await s.shot('gas');
+    await page.keyboard.press('Tab');
+    await page.keyboard.type('8.9');
+    await page.keyboard.press('Tab');
+    await page.keyboard.type('26');
+    await s.axe('gas');
+    await s.shot('gas');
     await page.keyboard.press('Enter');
 
     await waitOpen(page, 'chemistry');
     await expect.poll(() => focusedId(page)).toBe('f-chemistry-na');
-    await expect.poll(() => page.locator('#announce').textContent()).toBe('Gas: pH 7.28, PaCO2 7.6 kPa, PaO2 8.9 kPa, HCO3 26 mmol/L. Next: chemistry.');
-    await s.axe('chemistry'); await s.shot('chemistry');
+    await expect
+      .poll(() => page.locator('#announce').textContent())
+      .toBe('Gas: pH 7.28, PaCO2 7.6 kPa, PaO2 8.9 kPa, HCO3 26 mmol/L. Next: chemistry.');
+    await s.axe('chemistry');
+    await s.shot('chemistry');
     await page.getByRole('button', { name: 'Skip, no chemistry' }).focus();
     await page.keyboard.press('Enter');
 
@@ -68,40 +95,55 @@ describe.skipIf(!run)('the step-by-step page in Chromium', () => {
     await page.keyboard.press('ArrowUp');
     await page.keyboard.press('ArrowUp');
     expect(await page.getByLabel('Acute (hours)').isChecked()).toBe(true);
-    await s.axe('timing'); await s.shot('timing');
+    await s.axe('timing');
+    await s.shot('timing');
     await page.keyboard.press('Enter');
 
     await waitOpen(page, 'oxygen');
     await expect.poll(() => focusedId(page)).toBe('f-oxygen-fio2');
     await page.keyboard.type('0.5');
-    await page.keyboard.press('Tab'); await page.keyboard.type('10');
-    await page.keyboard.press('Tab'); await page.keyboard.press('Space'); // "Yes"
-    await s.axe('oxygen'); await s.shot('oxygen');
+    await page.keyboard.press('Tab');
+    await page.keyboard.type('10');
+    await page.keyboard.press('Tab');
+    await page.keyboard.press('Space'); // "Yes"
+    await s.axe('oxygen');
+    await s.shot('oxygen');
     await page.keyboard.press('Enter');
 
     await waitOpen(page, 'ventilator');
     await expect.poll(() => focusedId(page)).toBe('f-ventilator-vt');
-    for (const value of ['520', '14', '27', '175']) { await page.keyboard.type(value); await page.keyboard.press('Tab'); }
+    for (const value of ['520', '14', '27', '175']) {
+      await page.keyboard.type(value);
+      await page.keyboard.press('Tab');
+    }
     await page.keyboard.press('ArrowRight'); // from Female to Male
     expect(await page.getByLabel('Male', { exact: true }).isChecked()).toBe(true);
-    await page.keyboard.press('Tab'); await page.keyboard.type('7.35');
-    await s.axe('ventilator'); await s.shot('ventilator');
+    await page.keyboard.press('Tab');
+    await page.keyboard.type('7.35');
+    await s.axe('ventilator');
+    await s.shot('ventilator');
     await page.keyboard.press('Enter');
 
     await waitOpen(page, 'patient');
     await expect.poll(() => focusedId(page)).toBe('f-patient-ageYears');
-    expect(await page.locator('#step-patient').textContent()).toContain('Pregnancy not asked: male patient.');
+    expect(await page.locator('#step-patient').textContent()).toContain(
+      'Pregnancy not asked: male patient.',
+    );
     await page.keyboard.type('58');
-    await s.axe('patient'); await s.shot('patient');
+    await s.axe('patient');
+    await s.shot('patient');
     await page.keyboard.press('Enter');
 
     await page.locator('#draft').waitFor();
     await expect.poll(() => focusedId(page)).toBe('draft-title');
     const text = await noteText(s);
     const expected = await apiNote(h.origin, {
-      sample: 'arterial', units: { pressure: 'kPa' },
-      gas: { ph: 7.28, pco2: 7.6, po2: 8.9, hco3: 26 }, context: { timing: 'acute' },
-      oxygen: { fio2: 0.5, peep: 10 }, ventilator: { vt: 520, rr: 14, pplat: 27, targetPh: 7.35 },
+      sample: 'arterial',
+      units: { pressure: 'kPa' },
+      gas: { ph: 7.28, pco2: 7.6, po2: 8.9, hco3: 26 },
+      context: { timing: 'acute' },
+      oxygen: { fio2: 0.5, peep: 10 },
+      ventilator: { vt: 520, rr: 14, pplat: 27, targetPh: 7.35 },
       patient: { heightCm: 175, sex: 'male', ageYears: 58 },
     });
     expect(text).toBe(expected.text);
@@ -110,7 +152,9 @@ describe.skipIf(!run)('the step-by-step page in Chromium', () => {
     expect(text).toContain('PaCO2 7.6 kPa');
     expect(text).toContain('RR 17/min');
     expect(s.navigations()).toBe(1); // every step was an htmx swap, not a page load
-    await s.axe('draft'); await s.shot('draft'); await s.shot('draft-in-view', { full: false });
+    await s.axe('draft');
+    await s.shot('draft');
+    await s.shot('draft-in-view', { full: false });
     expect(await copyNote(s)).toBe(text);
 
     // change an earlier answer: the ventilator rate; the draft follows
@@ -134,27 +178,37 @@ describe.skipIf(!run)('the step-by-step page in Chromium', () => {
     await page.evaluate(() => window.dispatchEvent(new Event('beforeprint')));
     expect(await page.locator('.log').isVisible()).toBe(false);
     expect(await page.locator('.checks').isVisible()).toBe(false);
-    expect(await page.locator('.print-text[data-print-of="note-text"]').textContent()).toContain('Discussed with the ICU consultant.');
+    expect(await page.locator('.print-text[data-print-of="note-text"]').textContent()).toContain(
+      'Discussed with the ICU consultant.',
+    );
     await s.shot('print');
     await page.emulateMedia({ media: 'screen' });
     await finish(s);
   });
 
   it('a venous sample in an emergency department, on a phone, by touch', async () => {
-    const s = await openSession(h, 'venous-ed-phone', { viewport: { width: 390, height: 844 }, hasTouch: true, isMobile: true });
+    const s = await openSession(h, 'venous-ed-phone', {
+      viewport: { width: 390, height: 844 },
+      hasTouch: true,
+      isMobile: true,
+    });
     const { page } = s;
     await page.goto(`${h.origin}/`);
-    await s.axe('sample'); await s.shot('sample');
+    await s.axe('sample');
+    await s.shot('sample');
     await page.getByRole('button', { name: 'Venous' }).tap();
 
     await waitOpen(page, 'gas');
-    expect(await page.locator('#step-gas').textContent()).toContain('the PO2 of a venous sample does not show arterial oxygenation');
+    expect(await page.locator('#step-gas').textContent()).toContain(
+      'the PO2 of a venous sample does not show arterial oxygenation',
+    );
     expect(await page.locator('[name="gas.po2"]').count()).toBe(0);
     await num(page, 'pH').fill('7.31');
     await num(page, 'PvCO2').fill('53');
     await num(page, 'HCO3').fill('26');
     await num(page, 'Lactate').fill('3.1');
-    await s.axe('gas'); await s.shot('gas');
+    await s.axe('gas');
+    await s.shot('gas');
     await page.getByRole('button', { name: 'Next' }).tap();
 
     await waitOpen(page, 'chemistry');
@@ -165,38 +219,50 @@ describe.skipIf(!run)('the step-by-step page in Chromium', () => {
     await page.getByLabel('Glucose unit').selectOption('mmol/L');
     await num(page, 'Urea or BUN').fill('11');
     await page.getByLabel('Urea unit').selectOption('urea-mmol/L');
-    await s.axe('chemistry'); await s.shot('chemistry');
+    await s.axe('chemistry');
+    await s.shot('chemistry');
     await page.getByRole('button', { name: 'Next' }).tap();
 
     await waitOpen(page, 'timing');
-    await s.axe('timing'); await s.shot('timing');
+    await s.axe('timing');
+    await s.shot('timing');
     await page.getByRole('button', { name: 'Next' }).tap(); // "Not sure"
 
     await waitOpen(page, 'oxygen');
     expect(await page.locator('[name="oxygen.fio2"]').count()).toBe(0);
-    expect(await page.locator('#step-oxygen').textContent()).toContain('No FiO2 asked: oxygenation (A-a gradient, P/F ratio) is not assessed from a venous sample.');
+    expect(await page.locator('#step-oxygen').textContent()).toContain(
+      'No FiO2 asked: oxygenation (A-a gradient, P/F ratio) is not assessed from a venous sample.',
+    );
     await page.getByLabel('No', { exact: true }).tap();
-    await s.axe('oxygen'); await s.shot('oxygen');
+    await s.axe('oxygen');
+    await s.shot('oxygen');
     await page.getByRole('button', { name: 'Next' }).tap();
 
     await waitOpen(page, 'patient');
-    expect(await page.locator('#step-ventilator').textContent()).toContain('No ventilator questions: not on a ventilator.');
+    expect(await page.locator('#step-ventilator').textContent()).toContain(
+      'No ventilator questions: not on a ventilator.',
+    );
     await num(page, 'Age').fill('71');
-    await s.axe('patient'); await s.shot('patient');
+    await s.axe('patient');
+    await s.shot('patient');
     await page.getByRole('button', { name: 'Show the draft' }).tap();
 
     await page.locator('#draft').waitFor();
     const text = await noteText(s);
     const body = {
-      sample: 'venous', units: { pressure: 'mmHg', glucose: 'mmol/L', urea: 'urea-mmol/L' },
+      sample: 'venous',
+      units: { pressure: 'mmHg', glucose: 'mmol/L', urea: 'urea-mmol/L' },
       gas: { ph: 7.31, pco2: 53, hco3: 26, lactate: 3.1 },
       chemistry: { na: 134, k: 5.2, cl: 97, glucose: 8.4, urea: 11 },
-      context: { timing: 'unknown' }, patient: { ageYears: 71 },
+      context: { timing: 'unknown' },
+      patient: { ageYears: 71 },
     };
     expect(text).toBe((await apiNote(h.origin, body)).text);
     expect(text).toMatch(/venous/i);
     expect(text).not.toMatch(/A-a gradient \d|P\/F ratio \d/);
-    await s.axe('draft'); await s.shot('draft'); await s.shot('draft-in-view', { full: false });
+    await s.axe('draft');
+    await s.shot('draft');
+    await s.shot('draft-in-view', { full: false });
     expect(await copyNote(s)).toBe(text);
 
     // the patient turns out to be chronic: the draft follows the new timing
@@ -207,7 +273,9 @@ describe.skipIf(!run)('the step-by-step page in Chromium', () => {
     await page.locator('#draft').waitFor();
     const changed = await noteText(s);
     expect(changed).not.toBe(text);
-    expect(changed).toBe((await apiNote(h.origin, { ...body, context: { timing: 'chronic' } })).text);
+    expect(changed).toBe(
+      (await apiNote(h.origin, { ...body, context: { timing: 'chronic' } })).text,
+    );
     await s.shot('draft-chronic');
     await finish(s);
   });
@@ -228,11 +296,14 @@ describe.skipIf(!run)('the step-by-step page in Chromium', () => {
     await num(page, 'Lactate').fill('2.4');
     await page.getByRole('button', { name: 'Next' }).click();
     // refused at the field with the schema's message; the value never reaches a draft
-    await expect.poll(() => page.locator('#f-gas-ph-error').textContent()).toBe('Error: pH 9.1 is outside 6.50-8.00: check the value');
+    await expect
+      .poll(() => page.locator('#f-gas-ph-error').textContent())
+      .toBe('Error: pH 9.1 is outside 6.50-8.00: check the value');
     await expect.poll(() => focusedId(page)).toBe('f-gas-ph');
     expect(await page.locator('#f-gas-ph').getAttribute('aria-invalid')).toBe('true');
     expect(await page.locator('#draft').count()).toBe(0);
-    await s.axe('gas-error'); await s.shot('gas-error');
+    await s.axe('gas-error');
+    await s.shot('gas-error');
     await num(page, 'pH').fill('7.21');
     await num(page, 'pH').press('Enter');
 
@@ -244,29 +315,36 @@ describe.skipIf(!run)('the step-by-step page in Chromium', () => {
     await num(page, 'Glucose').fill('412');
     await num(page, 'Urea or BUN').fill('34');
     await num(page, 'Measured osmolality').fill('302');
-    await s.axe('chemistry'); await s.shot('chemistry');
+    await s.axe('chemistry');
+    await s.shot('chemistry');
     await page.getByRole('button', { name: 'Next' }).click();
 
     // Winters: 1.5 x 8.7 + 8 = 21 (+/- 2); PaCO2 22 fits, so there is no respiratory process to time
     await waitOpen(page, 'oxygen');
-    expect(await page.locator('#step-timing').textContent()).toContain('Timing not asked: these numbers show no respiratory process');
+    expect(await page.locator('#step-timing').textContent()).toContain(
+      'Timing not asked: these numbers show no respiratory process',
+    );
     await num(page, 'FiO2').fill('0.21');
     await page.getByLabel('No', { exact: true }).check();
-    await s.axe('oxygen'); await s.shot('oxygen');
+    await s.axe('oxygen');
+    await s.shot('oxygen');
     await page.getByRole('button', { name: 'Next' }).click();
 
     await waitOpen(page, 'patient');
     await num(page, 'Age').fill('29');
     await page.getByLabel('No', { exact: true }).check();
-    await s.axe('patient'); await s.shot('patient');
+    await s.axe('patient');
+    await s.shot('patient');
     await page.getByRole('button', { name: 'Show the draft' }).click();
 
     await page.locator('#draft').waitFor();
     const body = {
-      sample: 'arterial', units: { pressure: 'mmHg' },
+      sample: 'arterial',
+      units: { pressure: 'mmHg' },
       gas: { ph: 7.21, pco2: 22, po2: 101, hco3: 8.7, baseExcess: -18, lactate: 2.4 },
       chemistry: { na: 131, k: 5.6, cl: 96, albumin: 3.9, glucose: 412, urea: 34, osmolality: 302 },
-      oxygen: { fio2: 0.21 }, patient: { ageYears: 29, pregnant: false },
+      oxygen: { fio2: 0.21 },
+      patient: { ageYears: 29, pregnant: false },
     };
     const text = await noteText(s);
     expect(text).toBe((await apiNote(h.origin, body)).text);
@@ -280,7 +358,8 @@ describe.skipIf(!run)('the step-by-step page in Chromium', () => {
     await expect.poll(() => gap.textContent()).toContain('AG = Na - (Cl + HCO3)');
     expect(await gap.textContent()).toContain('Na 131 mmol/L; Cl 96 mmol/L; HCO3 8.7 mmol/L');
     expect(await gap.textContent()).toMatch(/Source\s+Kraut/);
-    await s.axe('draft'); await s.shot('draft');
+    await s.axe('draft');
+    await s.shot('draft');
     expect(await copyNote(s)).toBe(text);
 
     // change the albumin: the corrected gap and the draft follow
@@ -292,16 +371,31 @@ describe.skipIf(!run)('the step-by-step page in Chromium', () => {
     await page.locator('#draft').waitFor();
     const changed = await noteText(s);
     expect(changed).not.toBe(text);
-    expect(changed).toBe((await apiNote(h.origin, { ...body, chemistry: { ...body.chemistry, albumin: 2.1 } })).text);
+    expect(changed).toBe(
+      (await apiNote(h.origin, { ...body, chemistry: { ...body.chemistry, albumin: 2.1 } })).text,
+    );
 
     // Markdown: the note in Markdown, and a preview that follows the clinician's typing
     await page.getByLabel('Markdown').check();
     await page.locator('#preview').waitFor();
-    expect(await noteText(s)).toBe((await apiNote(h.origin, { ...body, chemistry: { ...body.chemistry, albumin: 2.1 } }, 'markdown')).text);
-    await page.locator('#note-text').fill('**Seen with the registrar.**\n\n- <b onclick="x()">fluids</b> as per local protocol');
-    await expect.poll(() => page.locator('#preview').innerHTML()).toContain('<strong>Seen with the registrar.</strong>');
+    expect(await noteText(s)).toBe(
+      (
+        await apiNote(
+          h.origin,
+          { ...body, chemistry: { ...body.chemistry, albumin: 2.1 } },
+          'markdown',
+        )
+      ).text,
+    );
+    await page
+      .locator('#note-text')
+      .fill('**Seen with the registrar.**\n\n- <b onclick="x()">fluids</b> as per local protocol');
+    await expect
+      .poll(() => page.locator('#preview').innerHTML())
+      .toContain('<strong>Seen with the registrar.</strong>');
     expect(await page.locator('#preview').innerHTML()).not.toContain('onclick');
-    await s.axe('markdown'); await s.shot('markdown');
+    await s.axe('markdown');
+    await s.shot('markdown');
 
     // print in Markdown: the rendered preview of the clinician's text, then the handover
     await page.emulateMedia({ media: 'print' });
@@ -330,14 +424,17 @@ describe.skipIf(!run)('the step-by-step page in Chromium', () => {
     await num(page, 'PcCO2').fill('47');
     await num(page, 'HCO3').fill('abc');
     await page.getByRole('button', { name: 'Next' }).click();
-    expect(await page.locator('#f-gas-hco3-error').textContent()).toBe('Error: HCO3 must be a number');
+    expect(await page.locator('#f-gas-hco3-error').textContent()).toBe(
+      'Error: HCO3 must be a number',
+    );
     await s.shot('gas-error');
     await num(page, 'HCO3').fill('26');
     await page.getByRole('button', { name: 'Next' }).click();
     await waitOpen(page, 'chemistry');
     await page.getByRole('button', { name: 'Skip, no chemistry' }).click();
     await page.locator('li.entry--open').waitFor();
-    if (await page.locator('#step-timing.entry--open').count()) await page.getByRole('button', { name: 'Next' }).click();
+    if (await page.locator('#step-timing.entry--open').count())
+      await page.getByRole('button', { name: 'Next' }).click();
     await waitOpen(page, 'oxygen');
     await page.getByLabel('No', { exact: true }).check();
     await page.getByRole('button', { name: 'Next' }).click();

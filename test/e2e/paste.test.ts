@@ -4,33 +4,63 @@
 // no CSP violation and no request leaves the machine. Every patient and printout is invented.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { apiNote, browserGate, focusedId, openSession, startHarness, waitOpen, type Harness, type Session } from './harness.ts';
+import {
+  apiNote,
+  browserGate,
+  focusedId,
+  openSession,
+  startHarness,
+  waitOpen,
+  type Harness,
+  type Session,
+} from './harness.ts';
 import { PRINTOUT } from '../server/fixtures.ts';
 
-const num = (page: Page, label: string) => page.getByRole('textbox', { name: new RegExp(`^${label.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}( |$)`) });
+const num = (page: Page, label: string) =>
+  page.getByRole('textbox', {
+    name: new RegExp(`^${label.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}( |$)`),
+  });
 
 const run = browserGate('test/e2e/paste.test.ts');
 
-
 const obs = (code: string, value: number, unit: string, at = '2026-03-02T04:10:00Z') => ({
-  resourceType: 'Observation', status: 'final', code: { coding: [{ system: 'http://loinc.org', code }] }, effectiveDateTime: at,
+  resourceType: 'Observation',
+  status: 'final',
+  code: { coding: [{ system: 'http://loinc.org', code }] },
+  effectiveDateTime: at,
   valueQuantity: { value, unit, code: unit, system: 'http://unitsofmeasure.org' },
 });
 // An invented 38-year-old in the emergency department. LOINC 11558-4 pH of Blood, 11557-6 PCO2 in Blood and
 // 1959-6 HCO3 in Blood do not say the sample type, so the page asks; 2524-7 lactate in serum or plasma is read;
 // an older PCO2 is set aside for the latest; 33254-4 (pH at the patient's temperature) is not read.
-const BUNDLE = JSON.stringify({
-  resourceType: 'Bundle', type: 'searchset',
-  entry: [
-    obs('11558-4', 7.29, '[pH]'), obs('11557-6', 51, 'mm[Hg]'), obs('11557-6', 58, 'mm[Hg]', '2026-03-02T01:00:00Z'), obs('1959-6', 24, 'mmol/L'),
-    obs('2524-7', 2.6, 'mmol/L'), obs('33254-4', 7.27, '[pH]'),
-  ].map((resource, i) => ({ fullUrl: `urn:uuid:00000000-0000-4000-8000-00000000000${i}`, resource })),
-}, null, 2);
+const BUNDLE = JSON.stringify(
+  {
+    resourceType: 'Bundle',
+    type: 'searchset',
+    entry: [
+      obs('11558-4', 7.29, '[pH]'),
+      obs('11557-6', 51, 'mm[Hg]'),
+      obs('11557-6', 58, 'mm[Hg]', '2026-03-02T01:00:00Z'),
+      obs('1959-6', 24, 'mmol/L'),
+      obs('2524-7', 2.6, 'mmol/L'),
+      obs('33254-4', 7.27, '[pH]'),
+    ].map((resource, i) => ({
+      fullUrl: `urn:uuid:00000000-0000-4000-8000-00000000000${i}`,
+      resource,
+    })),
+  },
+  null,
+  2,
+);
 
 describe.skipIf(!run)('pasting results and following up, in Chromium', () => {
   let h: Harness;
-  beforeAll(async () => { h = await startHarness(); });
-  afterAll(async () => { await h?.close(); });
+  beforeAll(async () => {
+    h = await startHarness();
+  });
+  afterAll(async () => {
+    await h?.close();
+  });
 
   const noteText = (s: Session) => s.page.locator('#note-text').inputValue();
 
@@ -45,7 +75,8 @@ describe.skipIf(!run)('pasting results and following up, in Chromium', () => {
     const { page } = s;
     await page.goto(`${h.origin}/`);
     await page.getByLabel('Or paste the results').fill(PRINTOUT);
-    await s.axe('paste box'); await s.shot('paste-box');
+    await s.axe('paste box');
+    await s.shot('paste-box');
     await page.getByRole('button', { name: 'Read the pasted text' }).click();
 
     await waitOpen(page, 'paste');
@@ -53,18 +84,28 @@ describe.skipIf(!run)('pasting results and following up, in Chromium', () => {
     await expect.poll(() => focusedId(page)).toBe('h-paste');
     const rows = page.locator('.read-table tbody tr');
     expect(await rows.count()).toBe(11);
-    expect(await rows.filter({ hasText: 'PaCO2' }).innerText()).toMatch(/PaCO2\s+29 mmHg\s+pCO2\s+29\s+mmHg/);
-    expect(await page.getByText('standard bicarbonate is not the actual HCO3').isVisible()).toBe(true);
-    await expect.poll(() => page.locator('#announce').textContent()).toBe('Read 10 values: check them, then use them.');
-    await s.axe('paste confirm'); await s.shot('confirm');
+    expect(await rows.filter({ hasText: 'PaCO2' }).innerText()).toMatch(
+      /PaCO2\s+29 mmHg\s+pCO2\s+29\s+mmHg/,
+    );
+    expect(await page.getByText('standard bicarbonate is not the actual HCO3').isVisible()).toBe(
+      true,
+    );
+    await expect
+      .poll(() => page.locator('#announce').textContent())
+      .toBe('Read 10 values: check them, then use them.');
+    await s.axe('paste confirm');
+    await s.shot('confirm');
     await page.getByRole('button', { name: 'Use these values' }).click();
 
     // sample, gas and chemistry are answered; timing is not asked (Winters' band); the FiO2 read waits to be confirmed
     await waitOpen(page, 'oxygen');
     expect(await page.locator('.entry--answer').count()).toBe(3);
     expect(await num(page, 'FiO2').inputValue()).toBe('21');
-    expect(await page.locator('#step-oxygen').textContent()).toContain('From the paste: FiO2. Check and go on.');
-    await s.axe('oxygen after paste'); await s.shot('after-confirm');
+    expect(await page.locator('#step-oxygen').textContent()).toContain(
+      'From the paste: FiO2. Check and go on.',
+    );
+    await s.axe('oxygen after paste');
+    await s.shot('after-confirm');
     await page.getByLabel('No', { exact: true }).check();
     await page.getByRole('button', { name: 'Next' }).click();
     await waitOpen(page, 'patient');
@@ -74,9 +115,12 @@ describe.skipIf(!run)('pasting results and following up, in Chromium', () => {
 
     await page.locator('#draft').waitFor();
     const expected = await apiNote(h.origin, {
-      sample: 'arterial', units: { pressure: 'mmHg' },
+      sample: 'arterial',
+      units: { pressure: 'mmHg' },
       gas: { ph: 7.26, pco2: 29, po2: 84, hco3: 13.6, baseExcess: -12.4, lactate: 7.8 },
-      chemistry: { na: 141, k: 4.6, cl: 103 }, oxygen: { fio2: 21 }, patient: { ageYears: 52, pregnant: false },
+      chemistry: { na: 141, k: 4.6, cl: 103 },
+      oxygen: { fio2: 21 },
+      patient: { ageYears: 52, pregnant: false },
     });
     const text = await noteText(s);
     expect(text).toBe(expected.text);
@@ -87,12 +131,19 @@ describe.skipIf(!run)('pasting results and following up, in Chromium', () => {
 
     // the map beside the draft on a wide screen, one gas on it, with the same in words
     const map = page.locator('#map');
-    const [draftBox, mapBox] = [await page.locator('#draft').boundingBox(), await map.boundingBox()];
+    const [draftBox, mapBox] = [
+      await page.locator('#draft').boundingBox(),
+      await map.boundingBox(),
+    ];
     expect(mapBox!.x).toBeGreaterThan(draftBox!.x + draftBox!.width - 1);
     expect(await map.locator('.gl-gas-marker').count()).toBe(1);
     await page.getByText('The map in words').click();
-    expect(await map.locator('.map-lines').innerText()).toMatch(/Current gas \(1 of 1\): pH 7\.26, PaCO2 29 mmHg, HCO3 13\.6 mmol\/L/);
-    await s.axe('draft with map'); await s.shot('draft'); await s.shot('draft-in-view', { full: false });
+    expect(await map.locator('.map-lines').innerText()).toMatch(
+      /Current gas \(1 of 1\): pH 7\.26, PaCO2 29 mmHg, HCO3 13\.6 mmol\/L/,
+    );
+    await s.axe('draft with map');
+    await s.shot('draft');
+    await s.shot('draft-in-view', { full: false });
 
     // print: the note, then the map, legible on paper
     await page.emulateMedia({ media: 'print' });
@@ -107,7 +158,11 @@ describe.skipIf(!run)('pasting results and following up, in Chromium', () => {
   });
 
   it('a FHIR bundle pasted on a phone: the sample asked, older and unused results listed, then a note', async () => {
-    const s = await openSession(h, 'paste-fhir-phone', { viewport: { width: 390, height: 844 }, hasTouch: true, isMobile: true });
+    const s = await openSession(h, 'paste-fhir-phone', {
+      viewport: { width: 390, height: 844 },
+      hasTouch: true,
+      isMobile: true,
+    });
     const { page } = s;
     await page.goto(`${h.origin}/`);
     await page.getByLabel('Or paste the results').fill(BUNDLE);
@@ -118,9 +173,12 @@ describe.skipIf(!run)('pasting results and following up, in Chromium', () => {
     expect(await page.locator('.read-table tbody tr').count()).toBe(4);
     const aside = await page.locator('.aside-list').first().innerText();
     expect(aside).toContain('33254-4');
-    expect(aside).toContain('PaCO2 58 mmHg (2026-03-02T01:00:00Z): an older result; the latest one is read');
+    expect(aside).toContain(
+      'PaCO2 58 mmHg (2026-03-02T01:00:00Z): an older result; the latest one is read',
+    );
     expect(await page.getByRole('group', { name: 'Sample type' }).isVisible()).toBe(true);
-    await s.axe('fhir confirm'); await s.shot('confirm');
+    await s.axe('fhir confirm');
+    await s.shot('confirm');
     await page.getByLabel('Venous').tap();
     await s.shot('confirm-answered', { full: false });
     await page.getByRole('button', { name: 'Use these values' }).tap();
@@ -129,7 +187,8 @@ describe.skipIf(!run)('pasting results and following up, in Chromium', () => {
     expect(await page.locator('#step-gas').textContent()).toContain('PvCO2 51 mmHg');
     await page.getByRole('button', { name: 'Skip, no chemistry' }).tap();
     await page.locator('#step-chemistry.entry--answer').waitFor();
-    if (await page.locator('#step-timing.entry--open').count()) await page.getByRole('button', { name: 'Next' }).tap();
+    if (await page.locator('#step-timing.entry--open').count())
+      await page.getByRole('button', { name: 'Next' }).tap();
     await waitOpen(page, 'oxygen');
     await page.getByLabel('No', { exact: true }).tap();
     await page.getByRole('button', { name: 'Next' }).tap();
@@ -139,16 +198,28 @@ describe.skipIf(!run)('pasting results and following up, in Chromium', () => {
 
     await page.locator('#draft').waitFor();
     const text = await noteText(s);
-    expect(text).toBe((await apiNote(h.origin, {
-      sample: 'venous', units: { pressure: 'mmHg' }, gas: { ph: 7.29, pco2: 51, hco3: 24, lactate: 2.6 },
-      context: { timing: 'unknown' }, patient: { ageYears: 38 },
-    })).text);
+    expect(text).toBe(
+      (
+        await apiNote(h.origin, {
+          sample: 'venous',
+          units: { pressure: 'mmHg' },
+          gas: { ph: 7.29, pco2: 51, hco3: 24, lactate: 2.6 },
+          context: { timing: 'unknown' },
+          patient: { ageYears: 38 },
+        })
+      ).text,
+    );
     expect(text).toMatch(/venous/i);
     // on a phone the map comes below the draft
-    const [draftBox, mapBox] = [await page.locator('#draft').boundingBox(), await page.locator('#map').boundingBox()];
+    const [draftBox, mapBox] = [
+      await page.locator('#draft').boundingBox(),
+      await page.locator('#map').boundingBox(),
+    ];
     expect(mapBox!.y).toBeGreaterThan(draftBox!.y + draftBox!.height - 1);
     await page.locator('#map').scrollIntoViewIfNeeded();
-    await s.axe('draft on a phone'); await s.shot('map-below', { full: false }); await s.shot('draft');
+    await s.axe('draft on a phone');
+    await s.shot('map-below', { full: false });
+    await s.shot('draft');
     await finish(s);
   });
 
@@ -191,9 +262,12 @@ describe.skipIf(!run)('pasting results and following up, in Chromium', () => {
     await page.getByRole('button', { name: 'Add a follow-up gas' }).click();
     await waitOpen(page, 'gas');
     await expect.poll(() => focusedId(page)).toBe('f-gas-ph');
-    expect(await page.locator('#step-earlier-1').textContent()).toMatch(/Earlier gas · before RR change[\s\S]*pH 7\.22[\s\S]*RR 14\/min/);
+    expect(await page.locator('#step-earlier-1').textContent()).toMatch(
+      /Earlier gas · before RR change[\s\S]*pH 7\.22[\s\S]*RR 14\/min/,
+    );
     expect(await page.locator('#draft').count()).toBe(0);
-    await s.axe('follow-up gas'); await s.shot('followup-gas');
+    await s.axe('follow-up gas');
+    await s.shot('followup-gas');
     await num(page, 'pH').fill('7.31');
     await num(page, 'PaCO2').fill('49');
     await num(page, 'PaO2').fill('95');
@@ -209,12 +283,28 @@ describe.skipIf(!run)('pasting results and following up, in Chromium', () => {
 
     await page.locator('#draft').waitFor();
     const text = await noteText(s);
-    expect(text).toBe((await apiNote(h.origin, {
-      sample: 'arterial', units: { pressure: 'mmHg' },
-      gas: { ph: 7.31, pco2: 49, po2: 95, hco3: 24.1 }, chemistry: { na: 139, k: 4.4, cl: 102 }, context: { timing: 'acute' },
-      oxygen: { fio2: 0.5, peep: 8 }, ventilator: { vt: 450, rr: 18 }, patient: { heightCm: 170, sex: 'male', ageYears: 66 },
-      previous: [{ label: 'before RR change', gas: { ph: 7.22, pco2: 61, po2: 88, hco3: 24.3 }, oxygen: { fio2: 0.5, peep: 8 }, ventilator: { vt: 450, rr: 14 } }],
-    })).text);
+    expect(text).toBe(
+      (
+        await apiNote(h.origin, {
+          sample: 'arterial',
+          units: { pressure: 'mmHg' },
+          gas: { ph: 7.31, pco2: 49, po2: 95, hco3: 24.1 },
+          chemistry: { na: 139, k: 4.4, cl: 102 },
+          context: { timing: 'acute' },
+          oxygen: { fio2: 0.5, peep: 8 },
+          ventilator: { vt: 450, rr: 18 },
+          patient: { heightCm: 170, sex: 'male', ageYears: 66 },
+          previous: [
+            {
+              label: 'before RR change',
+              gas: { ph: 7.22, pco2: 61, po2: 88, hco3: 24.3 },
+              oxygen: { fio2: 0.5, peep: 8 },
+              ventilator: { vt: 450, rr: 14 },
+            },
+          ],
+        })
+      ).text,
+    );
     expect(text).toContain('Since the previous gas (before RR change): pH 7.22 to 7.31');
     // RR 14 -> 18 at the same VT: 61 x 14 / 18 = 47 mmHg (alveolar ventilation equation, West)
     expect(text).toContain('predicted a PaCO2 of about 47 mmHg');
@@ -222,8 +312,12 @@ describe.skipIf(!run)('pasting results and following up, in Chromium', () => {
     expect(await map.locator('.gl-gas-marker').count()).toBe(2);
     expect(await map.locator('.gl-gas-step').count()).toBe(1);
     await page.getByText('The map in words').click();
-    expect(await map.locator('.map-lines').innerText()).toContain('Gas 1 of 2, before RR change: pH 7.22, PaCO2 61 mmHg');
-    await s.axe('draft with trend'); await s.shot('draft-trend'); await s.shot('draft-trend-in-view', { full: false });
+    expect(await map.locator('.map-lines').innerText()).toContain(
+      'Gas 1 of 2, before RR change: pH 7.22, PaCO2 61 mmHg',
+    );
+    await s.axe('draft with trend');
+    await s.shot('draft-trend');
+    await s.shot('draft-trend-in-view', { full: false });
     await finish(s);
   });
 

@@ -10,19 +10,33 @@ import { createApp } from '../../server/app.ts';
 const app = createApp();
 const UCUM = 'http://unitsofmeasure.org';
 const obs = (code: string, value: number, unit: string, extra: Record<string, unknown> = {}) => ({
-  resourceType: 'Observation', status: 'final', effectiveDateTime: '2026-04-11T03:20:00Z',
+  resourceType: 'Observation',
+  status: 'final',
+  effectiveDateTime: '2026-04-11T03:20:00Z',
   code: { coding: [{ system: 'http://loinc.org', code }] },
-  valueQuantity: { value, unit, code: unit, system: UCUM }, ...extra,
+  valueQuantity: { value, unit, code: unit, system: UCUM },
+  ...extra,
 });
-const bundle = (...resources: unknown[]) => ({ resourceType: 'Bundle', type: 'collection', entry: resources.map((resource) => ({ resource })) });
-const post = (body: unknown, query = '') => app.request(`/api/interpret${query}`, {
-  method: 'POST', headers: { 'content-type': 'application/fhir+json' }, body: typeof body === 'string' ? body : JSON.stringify(body),
+const bundle = (...resources: unknown[]) => ({
+  resourceType: 'Bundle',
+  type: 'collection',
+  entry: resources.map((resource) => ({ resource })),
 });
+const post = (body: unknown, query = '') =>
+  app.request(`/api/interpret${query}`, {
+    method: 'POST',
+    headers: { 'content-type': 'application/fhir+json' },
+    body: typeof body === 'string' ? body : JSON.stringify(body),
+  });
 
 // Invented: a ward patient with diabetic ketoacidosis, arterial gas and chemistry from the lab feed.
 const arterial = bundle(
-  obs('2744-1', 7.19, '[pH]'), obs('2019-8', 23, 'mm[Hg]'), obs('2703-7', 96, 'mm[Hg]'), obs('1960-4', 8.6, 'mmol/L'),
-  obs('2951-2', 135, 'mmol/L'), obs('2075-0', 99, 'mmol/L'),
+  obs('2744-1', 7.19, '[pH]'),
+  obs('2019-8', 23, 'mm[Hg]'),
+  obs('2703-7', 96, 'mm[Hg]'),
+  obs('1960-4', 8.6, 'mmol/L'),
+  obs('2951-2', 135, 'mmol/L'),
+  obs('2075-0', 99, 'mmol/L'),
 );
 
 describe('FHIR R4 through the API', () => {
@@ -33,21 +47,32 @@ describe('FHIR R4 through the API', () => {
     expect(body.ok).toBe(true);
     // AG = 135 - (99 + 8.6) = 27.4 (Kraut and Madias 2007); Winters 1.5 x 8.6 + 8 = 20.9 +/- 2
     expect(body.derived.anionGap).toBeCloseTo(27.4, 1);
-    expect(body.disorders[0]).toMatchObject({ code: 'metabolic_acidosis', detail: 'high_anion_gap' });
+    expect(body.disorders[0]).toMatchObject({
+      code: 'metabolic_acidosis',
+      detail: 'high_anion_gap',
+    });
     expect(body.note.text).toContain('7.19');
     expect(body.fhir.read.length).toBeGreaterThanOrEqual(6);
   });
 
   it('a code it does not use is reported, not dropped', async () => {
     // 8867-4 Heart rate (LOINC vital signs; from memory): not a field of the case
-    const res = await post(bundle(...arterial.entry.map((e) => e.resource), obs('8867-4', 112, '/min')));
+    const res = await post(
+      bundle(...arterial.entry.map((e) => e.resource), obs('8867-4', 112, '/min')),
+    );
     const body = await res.json();
     expect(res.status).toBe(200);
     expect(body.fhir.unused.map((u: { code: string }) => u.code)).toContain('8867-4');
   });
 
   it('venous codes give a venous sample', async () => {
-    const res = await post(bundle(obs('2746-6', 7.31, '[pH]'), obs('2021-4', 52, 'mm[Hg]'), obs('1960-4', 25.7, 'mmol/L')));
+    const res = await post(
+      bundle(
+        obs('2746-6', 7.31, '[pH]'),
+        obs('2021-4', 52, 'mm[Hg]'),
+        obs('1960-4', 25.7, 'mmol/L'),
+      ),
+    );
     const body = await res.json();
     // 2746-6 and 2021-4 are venous; 1960-4 is arterial: conflicting sample types are refused
     expect(res.status).toBe(422);
@@ -63,10 +88,19 @@ describe('FHIR R4 through the API', () => {
   });
 
   it('a unit that is not UCUM is a 422 naming the path', async () => {
-    const res = await post(bundle(obs('2744-1', 7.3, '[pH]'), { ...obs('2019-8', 45, 'mm[Hg]'), valueQuantity: { value: 45, unit: 'mmHg', code: 'mmHg', system: UCUM } }));
+    const res = await post(
+      bundle(obs('2744-1', 7.3, '[pH]'), {
+        ...obs('2019-8', 45, 'mm[Hg]'),
+        valueQuantity: { value: 45, unit: 'mmHg', code: 'mmHg', system: UCUM },
+      }),
+    );
     expect(res.status).toBe(422);
     const body = await res.json();
-    expect(body.errors.some((e: { path: string }) => e.path.startsWith('entry[1].resource.valueQuantity'))).toBe(true);
+    expect(
+      body.errors.some((e: { path: string }) =>
+        e.path.startsWith('entry[1].resource.valueQuantity'),
+      ),
+    ).toBe(true);
   });
 
   it('a body that is not JSON is a 400', async () => {

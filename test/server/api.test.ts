@@ -16,8 +16,27 @@ const post = (body: unknown, contentType = 'application/json', query = '') =>
 const ventilatedMmHg = {
   sample: 'arterial',
   units: { pressure: 'mmHg', albumin: 'g/dL', glucose: 'mg/dL', urea: 'bun-mg/dL' },
-  gas: { ph: 7.31, pco2: 48, po2: 72, hco3: 23.5, baseExcess: -2.1, sao2: 93, lactate: 1.1, hb: 12.1 },
-  chemistry: { na: 138, k: 4.1, cl: 104, albumin: 3.1, glucose: 110, urea: 18, creatinine: 1.0, osmolality: 290, ethanol: null },
+  gas: {
+    ph: 7.31,
+    pco2: 48,
+    po2: 72,
+    hco3: 23.5,
+    baseExcess: -2.1,
+    sao2: 93,
+    lactate: 1.1,
+    hb: 12.1,
+  },
+  chemistry: {
+    na: 138,
+    k: 4.1,
+    cl: 104,
+    albumin: 3.1,
+    glucose: 110,
+    urea: 18,
+    creatinine: 1.0,
+    osmolality: 290,
+    ethanol: null,
+  },
   patient: { ageYears: 64, sex: 'female', heightCm: 162, pregnant: false },
   context: { timing: 'acute', barometricPressure: 760, altitudeM: null, temperatureC: 37 },
   oxygen: { fio2: 0.4, peep: 8 },
@@ -47,9 +66,26 @@ describe('POST /api/interpret: a full ventilated case', () => {
     expect(res.status).toBe(200);
     const body = await res.json();
     expect(body.ok).toBe(true);
-    for (const key of ['hPlus', 'hco3Henderson', 'anionGap', 'anionGapCorrected', 'deltaRatio', 'expectedPco2', 'expectedHco3',
-      'standardBaseExcess', 'osmolarGap', 'alveolarPo2', 'aaGradient', 'aaGradientExpected', 'pfRatio', 'predictedBodyWeightKg',
-      'vtPerKgPbw', 'targetPco2', 'suggestedRr', 'suggestedVt']) {
+    for (const key of [
+      'hPlus',
+      'hco3Henderson',
+      'anionGap',
+      'anionGapCorrected',
+      'deltaRatio',
+      'expectedPco2',
+      'expectedHco3',
+      'standardBaseExcess',
+      'osmolarGap',
+      'alveolarPo2',
+      'aaGradient',
+      'aaGradientExpected',
+      'pfRatio',
+      'predictedBodyWeightKg',
+      'vtPerKgPbw',
+      'targetPco2',
+      'suggestedRr',
+      'suggestedVt',
+    ]) {
       expect(body.derived, key).toHaveProperty(key);
     }
     // [H+] = 10^(9 - 7.31) = 48.98 nmol/L (definition of pH)
@@ -90,7 +126,17 @@ describe('POST /api/interpret: a full ventilated case', () => {
     const a = await (await post(ventilatedMmHg)).json();
     const b = await (await post(ventilatedKpa)).json();
     expect(b.ok).toBe(true);
-    for (const key of ['hPlus', 'anionGap', 'anionGapCorrected', 'osmolarGap', 'alveolarPo2', 'aaGradient', 'pfRatio', 'targetPco2', 'suggestedRr']) {
+    for (const key of [
+      'hPlus',
+      'anionGap',
+      'anionGapCorrected',
+      'osmolarGap',
+      'alveolarPo2',
+      'aaGradient',
+      'pfRatio',
+      'targetPco2',
+      'suggestedRr',
+    ]) {
       expect(b.derived[key], key).toBeCloseTo(a.derived[key], 0);
     }
     expect(b.disorders).toEqual(a.disorders);
@@ -107,7 +153,13 @@ describe('POST /api/interpret: a full ventilated case', () => {
 
 describe('POST /api/interpret: each sample and disorder through the wire', () => {
   it('a venous sample: no oxygenation, flagged', async () => {
-    const body = await (await post({ sample: 'venous', gas: { ph: 7.36, pco2: 46, po2: 38, hco3: 25 }, oxygen: { fio2: 0.21 } })).json();
+    const body = await (
+      await post({
+        sample: 'venous',
+        gas: { ph: 7.36, pco2: 46, po2: 38, hco3: 25 },
+        oxygen: { fio2: 0.21 },
+      })
+    ).json();
     expect(body.ok).toBe(true);
     expect(body.derived.alveolarPo2).toBeNull();
     expect(body.derived.pfRatio).toBeNull();
@@ -115,19 +167,27 @@ describe('POST /api/interpret: each sample and disorder through the wire', () =>
   });
 
   it('metabolic acidosis: Winters band as expectedPco2', async () => {
-    const body = await (await post({ gas: { ph: 7.21, pco2: 24, hco3: 9.4 }, chemistry: { na: 139, cl: 101, albumin: 4.0 } })).json();
+    const body = await (
+      await post({
+        gas: { ph: 7.21, pco2: 24, hco3: 9.4 },
+        chemistry: { na: 139, cl: 101, albumin: 4.0 },
+      })
+    ).json();
     // Winters: 1.5 x 9.4 + 8 = 22.1 +/- 2 (Albert, Dell and Winters 1967)
     expect(body.derived.expectedPco2).toEqual({ low: 20.1, high: 24.1 });
-    expect(body.disorders[0]).toMatchObject({ code: 'metabolic_acidosis', detail: 'high_anion_gap' });
+    expect(body.disorders[0]).toMatchObject({
+      code: 'metabolic_acidosis',
+      detail: 'high_anion_gap',
+    });
   });
 
   it('a normal gas returns an empty disorder list', async () => {
-    const body = await (await post({ gas: { ph: 7.40, pco2: 40, hco3: 24.2 } })).json();
+    const body = await (await post({ gas: { ph: 7.4, pco2: 40, hco3: 24.2 } })).json();
     expect(body.disorders).toEqual([]);
   });
 
   it('a probable unit mix-up is asked, not guessed', async () => {
-    const body = await (await post({ gas: { ph: 7.40, pco2: 5.3, po2: 12 } })).json();
+    const body = await (await post({ gas: { ph: 7.4, pco2: 5.3, po2: 12 } })).json();
     expect(body.ok).toBe(true);
     expect(body.withheld).toBe(true);
     expect(body.flags[0].code).toBe('unit_ambiguous');
@@ -142,11 +202,15 @@ describe('POST /api/interpret: errors', () => {
     expect(res.status).toBe(422);
     const body = await res.json();
     expect(body.ok).toBe(false);
-    expect(body.errors).toEqual([{ path: 'gas.ph', message: 'pH 9.1 is outside 6.50-8.00: check the value' }]);
+    expect(body.errors).toEqual([
+      { path: 'gas.ph', message: 'pH 9.1 is outside 6.50-8.00: check the value' },
+    ]);
   });
 
   it('422 for a range in kPa is stated in kPa', async () => {
-    const body = await (await post({ units: { pressure: 'kPa' }, gas: { ph: 7.3, pco2: 40, hco3: 24 } })).json();
+    const body = await (
+      await post({ units: { pressure: 'kPa' }, gas: { ph: 7.3, pco2: 40, hco3: 24 } })
+    ).json();
     expect(body.errors[0].path).toBe('gas.pco2');
     expect(body.errors[0].message).toMatch(/kPa/);
   });
@@ -154,12 +218,24 @@ describe('POST /api/interpret: errors', () => {
   it.each([
     ['a wrong type', { gas: { ph: '7.3', pco2: 40, hco3: 24 } }, 'gas.ph'],
     ['an unknown enum', { sample: 'arterialised', gas: { ph: 7.3, pco2: 40, hco3: 24 } }, 'sample'],
-    ['an unknown unit', { units: { pressure: 'torr' }, gas: { ph: 7.3, pco2: 40, hco3: 24 } }, 'units.pressure'],
+    [
+      'an unknown unit',
+      { units: { pressure: 'torr' }, gas: { ph: 7.3, pco2: 40, hco3: 24 } },
+      'units.pressure',
+    ],
     ['an unknown field', { gas: { ph: 7.3, pco2: 40, hco3: 24, pc02: 1 } }, 'gas.pc02'],
     ['a missing gas', { sample: 'arterial' }, 'gas'],
     ['too few gas values', { gas: { ph: 7.3 } }, 'gas'],
-    ['a nested previous gas', { gas: { ph: 7.3, pco2: 40, hco3: 24 }, previous: [{ gas: { ph: 5, pco2: 40 } }] }, 'previous.0.gas.ph'],
-    ['FiO2 between fraction and percent', { gas: { ph: 7.3, pco2: 40, hco3: 24 }, oxygen: { fio2: 5 } }, 'oxygen.fio2'],
+    [
+      'a nested previous gas',
+      { gas: { ph: 7.3, pco2: 40, hco3: 24 }, previous: [{ gas: { ph: 5, pco2: 40 } }] },
+      'previous.0.gas.ph',
+    ],
+    [
+      'FiO2 between fraction and percent',
+      { gas: { ph: 7.3, pco2: 40, hco3: 24 }, oxygen: { fio2: 5 } },
+      'oxygen.fio2',
+    ],
   ])('422 for %s', async (_name, body, path) => {
     const res = await post(body);
     expect(res.status).toBe(422);
@@ -182,7 +258,10 @@ describe('POST /api/interpret: errors', () => {
   });
 
   it('413 for a body over 64 KiB', async () => {
-    const big = JSON.stringify({ gas: { ph: 7.3, pco2: 40, hco3: 24 }, padding: 'x'.repeat(70 * 1024) });
+    const big = JSON.stringify({
+      gas: { ph: 7.3, pco2: 40, hco3: 24 },
+      padding: 'x'.repeat(70 * 1024),
+    });
     const res = await post(big);
     expect(res.status).toBe(413);
   });

@@ -11,22 +11,43 @@ let server: ServerType;
 let base = '';
 beforeAll(async () => {
   await new Promise<void>((resolve) => {
-    server = serve({ fetch: createApp().fetch, port: 0, hostname: '127.0.0.1' }, (info: AddressInfo) => { base = `http://127.0.0.1:${info.port}`; resolve(); });
+    server = serve(
+      { fetch: createApp().fetch, port: 0, hostname: '127.0.0.1' },
+      (info: AddressInfo) => {
+        base = `http://127.0.0.1:${info.port}`;
+        resolve();
+      },
+    );
   });
 });
-afterAll(() => new Promise<void>((resolve) => { server.close(() => resolve()); }));
+afterAll(
+  () =>
+    new Promise<void>((resolve) => {
+      server.close(() => resolve());
+    }),
+);
 
 const CASE = { gas: { ph: 7.31, pco2: 48, hco3: 23.5 } };
 const padded = (bytes: number) => JSON.stringify({ ...CASE, padding: 'x'.repeat(bytes) });
-const chunked = (text: string) => new ReadableStream<Uint8Array>({
-  start(controller) {
-    const bytes = new TextEncoder().encode(text);
-    for (let i = 0; i < bytes.length; i += 4096) controller.enqueue(bytes.slice(i, i + 4096));
-    controller.close();
-  },
-});
-const post = (body: string | ReadableStream<Uint8Array>, path = '/api/interpret', type = 'application/json') =>
-  fetch(base + path, { method: 'POST', headers: { 'content-type': type }, body, duplex: 'half' } as RequestInit);
+const chunked = (text: string) =>
+  new ReadableStream<Uint8Array>({
+    start(controller) {
+      const bytes = new TextEncoder().encode(text);
+      for (let i = 0; i < bytes.length; i += 4096) controller.enqueue(bytes.slice(i, i + 4096));
+      controller.close();
+    },
+  });
+const post = (
+  body: string | ReadableStream<Uint8Array>,
+  path = '/api/interpret',
+  type = 'application/json',
+) =>
+  fetch(base + path, {
+    method: 'POST',
+    headers: { 'content-type': type },
+    body,
+    duplex: 'half',
+  } as RequestInit);
 
 describe('the body limit over HTTP', () => {
   it('a case with a declared length below the limit is read', async () => {
@@ -48,9 +69,15 @@ describe('the body limit over HTTP', () => {
     expect(under.status).toBe(200);
   });
 
-  it('the page\'s forms have the same limit, both ways', async () => {
-    const form = new URLSearchParams({ case: padded(BODY_LIMIT_BYTES), step: 'gas', action: 'next' }).toString();
+  it("the page's forms have the same limit, both ways", async () => {
+    const form = new URLSearchParams({
+      case: padded(BODY_LIMIT_BYTES),
+      step: 'gas',
+      action: 'next',
+    }).toString();
     expect((await post(form, '/step', 'application/x-www-form-urlencoded')).status).toBe(413);
-    expect((await post(chunked(form), '/step', 'application/x-www-form-urlencoded')).status).toBe(413);
+    expect((await post(chunked(form), '/step', 'application/x-www-form-urlencoded')).status).toBe(
+      413,
+    );
   });
 });

@@ -7,43 +7,85 @@ import { createApp } from '../../server/app.ts';
 import { interpret } from '../../calc/index.ts';
 import { MAX_PREVIOUS_GASES } from '../../calc/schema.ts';
 import { createNoteRenderer } from '../../templates/index.ts';
-import { caseOf, hidden, openId, openStep, stateOf, textareaOf, unescape, poster, type Fields } from './pageHtml.ts';
+import {
+  caseOf,
+  hidden,
+  openId,
+  openStep,
+  stateOf,
+  textareaOf,
+  unescape,
+  poster,
+  type Fields,
+} from './pageHtml.ts';
 
 const app = createApp();
 const renderer = createNoteRenderer();
 
-
 const svgOf = (html: string) => html.match(/<svg[\s\S]*?<\/svg>/)?.[0] ?? '';
 
 const post = poster(app);
-const answer = (html: string, step: string, fields: Fields) => post('/step', { ...stateOf(html), step, action: 'next', ...fields });
+const answer = (html: string, step: string, fields: Fields) =>
+  post('/step', { ...stateOf(html), step, action: 'next', ...fields });
 const followUp = (html: string, when: string) => post('/followup', { ...stateOf(html), when });
 
 // An invented 66-year-old ventilated for pneumonia with an acute respiratory acidosis.
 async function ventilatedDraft(): Promise<string> {
   let html = await (await app.request('/')).text();
   html = (await answer(html, 'sample', { sample: 'arterial' })).html;
-  html = (await answer(html, 'gas', { 'units.pressure': 'mmHg', 'gas.ph': '7.22', 'gas.pco2': '61', 'gas.po2': '88', 'gas.hco3': '24.3' })).html;
-  html = (await answer(html, 'chemistry', { 'chemistry.na': '139', 'chemistry.k': '4.4', 'chemistry.cl': '102' })).html;
+  html = (
+    await answer(html, 'gas', {
+      'units.pressure': 'mmHg',
+      'gas.ph': '7.22',
+      'gas.pco2': '61',
+      'gas.po2': '88',
+      'gas.hco3': '24.3',
+    })
+  ).html;
+  html = (
+    await answer(html, 'chemistry', {
+      'chemistry.na': '139',
+      'chemistry.k': '4.4',
+      'chemistry.cl': '102',
+    })
+  ).html;
   html = (await answer(html, 'timing', { 'context.timing': 'acute' })).html;
-  html = (await answer(html, 'oxygen', { 'oxygen.fio2': '0.5', 'oxygen.peep': '8', ventilated: 'yes' })).html;
-  html = (await answer(html, 'ventilator', { 'ventilator.vt': '450', 'ventilator.rr': '14', 'patient.heightCm': '170', 'patient.sex': 'male' })).html;
+  html = (
+    await answer(html, 'oxygen', { 'oxygen.fio2': '0.5', 'oxygen.peep': '8', ventilated: 'yes' })
+  ).html;
+  html = (
+    await answer(html, 'ventilator', {
+      'ventilator.vt': '450',
+      'ventilator.rr': '14',
+      'patient.heightCm': '170',
+      'patient.sex': 'male',
+    })
+  ).html;
   html = (await answer(html, 'patient', { 'patient.ageYears': '66' })).html;
   expect(openId(html)).toBeNull();
   return html;
 }
 
-const FIRST = { sample: 'arterial', units: { pressure: 'mmHg' }, gas: { ph: 7.22, pco2: 61, po2: 88, hco3: 24.3 } };
+const FIRST = {
+  sample: 'arterial',
+  units: { pressure: 'mmHg' },
+  gas: { ph: 7.22, pco2: 61, po2: 88, hco3: 24.3 },
+};
 const KEPT = {
-  chemistry: { na: 139, k: 4.4, cl: 102 }, context: { timing: 'acute' },
+  chemistry: { na: 139, k: 4.4, cl: 102 },
+  context: { timing: 'acute' },
   patient: { heightCm: 170, sex: 'male', ageYears: 66 },
 };
 
 describe('the draft offers a follow-up gas', () => {
   it('has the button with an optional time or label', async () => {
     const html = await ventilatedDraft();
-    expect(html).toMatch(/<form class="followup-form" method="post" action="\/followup" hx-post="\/followup"/);
-    expect(html).toContain('<label class="field-label" for="followup-when">When this gas was taken, or a label <span class="unit">optional</span></label>');
+    expect(html).toMatch(
+      /<form class="followup-form" method="post" action="\/followup" hx-post="\/followup"/,
+    );
+    expect(html).toContain(
+      '<label class="field-label" for="followup-when">When this gas was taken, or a label <span class="unit">optional</span></label>',
+    );
     expect(html).toContain('<button type="submit" class="button">Add a follow-up gas</button>');
   });
 
@@ -51,17 +93,32 @@ describe('the draft offers a follow-up gas', () => {
     const { status, html } = await followUp(await ventilatedDraft(), '2026-03-02T04:10');
     expect(status).toBe(200);
     expect(caseOf(html)).toEqual({
-      sample: 'arterial', units: { pressure: 'mmHg' }, ...KEPT,
-      oxygen: { fio2: 0.5, peep: 8 }, ventilator: { vt: 450, rr: 14 },
-      previous: [{ takenAt: '2026-03-02T04:10', gas: FIRST.gas, oxygen: { fio2: 0.5, peep: 8 }, ventilator: { vt: 450, rr: 14 } }],
+      sample: 'arterial',
+      units: { pressure: 'mmHg' },
+      ...KEPT,
+      oxygen: { fio2: 0.5, peep: 8 },
+      ventilator: { vt: 450, rr: 14 },
+      previous: [
+        {
+          takenAt: '2026-03-02T04:10',
+          gas: FIRST.gas,
+          oxygen: { fio2: 0.5, peep: 8 },
+          ventilator: { vt: 450, rr: 14 },
+        },
+      ],
     });
     expect(stateOf(html).done).toBe('sample chemistry timing patient');
     expect(openId(html)).toBe('gas');
     const step = openStep(html);
-    for (const name of ['gas.ph', 'gas.pco2', 'gas.po2', 'gas.hco3']) expect(step).toMatch(new RegExp(`name="${name.replace('.', '\\.')}" value=""`));
-    expect(step).toContain('A follow-up gas: enter it in mmHg, like the earlier one. Chemistry, patient and context are kept from before');
+    for (const name of ['gas.ph', 'gas.pco2', 'gas.po2', 'gas.hco3'])
+      expect(step).toMatch(new RegExp(`name="${name.replace('.', '\\.')}" value=""`));
+    expect(step).toContain(
+      'A follow-up gas: enter it in mmHg, like the earlier one. Chemistry, patient and context are kept from before',
+    );
     // the earlier gas heads the conversation, with the way back
-    expect(html).toMatch(/<li class="entry entry--earlier" id="step-earlier-1">[\s\S]*?Earlier gas<span class="reply-when"> · 2026-03-02 04:10<\/span>[\s\S]*?<li>pH 7.22<\/li><li>PaCO2 61 mmHg<\/li><li>PaO2 88 mmHg<\/li><li>HCO3 24.3 mmol\/L<\/li><li>FiO2 0.5<\/li><li>PEEP 8 cmH2O<\/li><li>VT 450 mL<\/li><li>RR 14\/min<\/li>/);
+    expect(html).toMatch(
+      /<li class="entry entry--earlier" id="step-earlier-1">[\s\S]*?Earlier gas<span class="reply-when"> · 2026-03-02 04:10<\/span>[\s\S]*?<li>pH 7.22<\/li><li>PaCO2 61 mmHg<\/li><li>PaO2 88 mmHg<\/li><li>HCO3 24.3 mmol\/L<\/li><li>FiO2 0.5<\/li><li>PEEP 8 cmH2O<\/li><li>VT 450 mL<\/li><li>RR 14\/min<\/li>/,
+    );
     expect(html).toContain('name="open" value="cancel-followup"');
     expect(html).not.toContain('draft-title');
   });
@@ -75,19 +132,46 @@ describe('the draft offers a follow-up gas', () => {
 
   it('the follow-up flow: gas, oxygen, ventilator, then a draft with the trend in the note and both gases on the map', async () => {
     let html = (await followUp(await ventilatedDraft(), 'before RR change')).html;
-    html = (await answer(html, 'gas', { 'units.pressure': 'mmHg', 'gas.ph': '7.31', 'gas.pco2': '49', 'gas.po2': '95', 'gas.hco3': '24.1' })).html;
+    html = (
+      await answer(html, 'gas', {
+        'units.pressure': 'mmHg',
+        'gas.ph': '7.31',
+        'gas.pco2': '49',
+        'gas.po2': '95',
+        'gas.hco3': '24.1',
+      })
+    ).html;
     expect(openId(html)).toBe('oxygen');
     expect(openStep(html)).toMatch(/name="oxygen\.fio2" value="0\.5"/); // as before, to be confirmed
-    html = (await answer(html, 'oxygen', { 'oxygen.fio2': '0.5', 'oxygen.peep': '8', ventilated: 'yes' })).html;
+    html = (
+      await answer(html, 'oxygen', { 'oxygen.fio2': '0.5', 'oxygen.peep': '8', ventilated: 'yes' })
+    ).html;
     expect(openId(html)).toBe('ventilator');
     expect(openStep(html)).toMatch(/name="ventilator\.rr" value="14"/);
-    html = (await answer(html, 'ventilator', { 'ventilator.vt': '450', 'ventilator.rr': '18', 'patient.heightCm': '170', 'patient.sex': 'male' })).html;
+    html = (
+      await answer(html, 'ventilator', {
+        'ventilator.vt': '450',
+        'ventilator.rr': '18',
+        'patient.heightCm': '170',
+        'patient.sex': 'male',
+      })
+    ).html;
     expect(openId(html)).toBeNull();
 
     const expected = {
-      ...FIRST, gas: { ph: 7.31, pco2: 49, po2: 95, hco3: 24.1 }, ...KEPT,
-      oxygen: { fio2: 0.5, peep: 8 }, ventilator: { vt: 450, rr: 18 },
-      previous: [{ label: 'before RR change', gas: FIRST.gas, oxygen: { fio2: 0.5, peep: 8 }, ventilator: { vt: 450, rr: 14 } }],
+      ...FIRST,
+      gas: { ph: 7.31, pco2: 49, po2: 95, hco3: 24.1 },
+      ...KEPT,
+      oxygen: { fio2: 0.5, peep: 8 },
+      ventilator: { vt: 450, rr: 18 },
+      previous: [
+        {
+          label: 'before RR change',
+          gas: FIRST.gas,
+          oxygen: { fio2: 0.5, peep: 8 },
+          ventilator: { vt: 450, rr: 14 },
+        },
+      ],
     };
     expect(caseOf(html)).toEqual(expected);
     const findings = interpret(expected);
@@ -103,7 +187,9 @@ describe('the draft offers a follow-up gas', () => {
     expect(svg).toContain('id="gasline-map-gas-current"');
     expect(svg).toContain('id="gasline-map-gas-1"');
     expect(svg).toMatch(/class="gl-gas-step" data-from="1" data-to="2"/);
-    expect(html).toMatch(/<li>Gas 1 of 2, before RR change: pH 7\.22, PaCO2 61 mmHg, HCO3 24\.3 mmol\/L/);
+    expect(html).toMatch(
+      /<li>Gas 1 of 2, before RR change: pH 7\.22, PaCO2 61 mmHg, HCO3 24\.3 mmol\/L/,
+    );
     // a second follow-up is offered, up to the schema's limit
     expect(html).toContain('Add a follow-up gas');
   });
@@ -119,9 +205,16 @@ describe('the draft offers a follow-up gas', () => {
 
   it('the follow-up keeps the pressure unit of the earlier gases', async () => {
     const pending = (await followUp(await ventilatedDraft(), '')).html;
-    const res = await answer(pending, 'gas', { 'units.pressure': 'kPa', 'gas.ph': '7.31', 'gas.pco2': '6.5', 'gas.hco3': '24.1' });
+    const res = await answer(pending, 'gas', {
+      'units.pressure': 'kPa',
+      'gas.ph': '7.31',
+      'gas.pco2': '6.5',
+      'gas.hco3': '24.1',
+    });
     expect(res.status).toBe(422);
-    expect(res.html).toContain('The earlier gases of this case are in mmHg: enter the follow-up gas in mmHg too, or start a new case');
+    expect(res.html).toContain(
+      'The earlier gases of this case are in mmHg: enter the follow-up gas in mmHg too, or start a new case',
+    );
     expect(caseOf(res.html).gas).toBeUndefined();
   });
 
@@ -129,15 +222,25 @@ describe('the draft offers a follow-up gas', () => {
     const draft = await ventilatedDraft();
     const res = await followUp(draft, 'x'.repeat(81));
     expect(res.status).toBe(422);
-    expect(res.html).toMatch(/<p class="error" id="followup-when-error"><span class="visually-hidden">Error: <\/span>Keep the time or label to 80 characters or fewer \(it has 81\)\.<\/p>/);
+    expect(res.html).toMatch(
+      /<p class="error" id="followup-when-error"><span class="visually-hidden">Error: <\/span>Keep the time or label to 80 characters or fewer \(it has 81\)\.<\/p>/,
+    );
     expect(caseOf(res.html)).toEqual(caseOf(draft));
   });
 
   it(`stops at the schema's limit of ${MAX_PREVIOUS_GASES} earlier gases, and says so`, async () => {
     const draft = await ventilatedDraft();
-    const full = { ...caseOf(draft), previous: Array.from({ length: MAX_PREVIOUS_GASES }, (_, i) => ({ label: `gas ${i + 1}`, gas: { ph: 7.3, pco2: 50, hco3: 24 } })) };
+    const full = {
+      ...caseOf(draft),
+      previous: Array.from({ length: MAX_PREVIOUS_GASES }, (_, i) => ({
+        label: `gas ${i + 1}`,
+        gas: { ph: 7.3, pco2: 50, hco3: 24 },
+      })),
+    };
     const page = await post('/open', { ...stateOf(draft), case: JSON.stringify(full) });
-    expect(page.html).toContain(`This case holds ${MAX_PREVIOUS_GASES} earlier gases, the most it can`);
+    expect(page.html).toContain(
+      `This case holds ${MAX_PREVIOUS_GASES} earlier gases, the most it can`,
+    );
     expect(page.html).not.toContain('Add a follow-up gas');
     const res = await followUp(page.html, '');
     expect(res.status).toBe(422);
@@ -145,7 +248,12 @@ describe('the draft offers a follow-up gas', () => {
   });
 
   it('a follow-up needs a gas to follow', async () => {
-    const res = await post('/followup', { case: '{"sample":"arterial"}', done: 'sample', format: 'text', when: '' });
+    const res = await post('/followup', {
+      case: '{"sample":"arterial"}',
+      done: 'sample',
+      format: 'text',
+      when: '',
+    });
     expect(res.status).toBe(400);
     expect(res.html).toContain('There is no gas to follow up yet.');
   });
@@ -154,21 +262,35 @@ describe('the draft offers a follow-up gas', () => {
 describe('the acid-base map on the draft', () => {
   it('is drawn beside the note with its text alternative, CSP-safe', async () => {
     const html = await ventilatedDraft();
-    expect(html).toMatch(/<\/section>\s*<section class="map-panel" id="map" aria-labelledby="map-heading">/);
+    expect(html).toMatch(
+      /<\/section>\s*<section class="map-panel" id="map" aria-labelledby="map-heading">/,
+    );
     const svg = svgOf(html);
-    expect(svg).toMatch(/^<svg xmlns="http:\/\/www\.w3\.org\/2000\/svg" class="gl-map"[^>]* role="img" aria-labelledby="gasline-map-title gasline-map-desc"/);
+    expect(svg).toMatch(
+      /^<svg xmlns="http:\/\/www\.w3\.org\/2000\/svg" class="gl-map"[^>]* role="img" aria-labelledby="gasline-map-title gasline-map-desc"/,
+    );
     expect(svg.match(/class="gl-gas-marker"/g)).toHaveLength(1);
     expect(svg).not.toMatch(/<script|\sstyle=|\son[a-z]+=/i);
     expect(html).toContain('<summary>The map in words</summary>');
-    expect(html).toMatch(/<ul class="map-lines"><li>Acid-base map: HCO3 \(5-50 mmol\/L, up\) against pH/);
+    expect(html).toMatch(
+      /<ul class="map-lines"><li>Acid-base map: HCO3 \(5-50 mmol\/L, up\) against pH/,
+    );
     expect(html).toMatch(/<li>Current gas \(1 of 1\): pH 7\.22, PaCO2 61 mmHg, HCO3 24\.3 mmol\/L/);
   });
 
   it('escapes a hostile label in the drawing and in the words', async () => {
     const pending = (await followUp(await ventilatedDraft(), '<script>alert(1)</script>')).html;
-    let html = (await answer(pending, 'gas', { 'units.pressure': 'mmHg', 'gas.ph': '7.31', 'gas.pco2': '49', 'gas.hco3': '24.1' })).html;
+    let html = (
+      await answer(pending, 'gas', {
+        'units.pressure': 'mmHg',
+        'gas.ph': '7.31',
+        'gas.pco2': '49',
+        'gas.hco3': '24.1',
+      })
+    ).html;
     html = (await answer(html, 'oxygen', { 'oxygen.fio2': '0.5', ventilated: 'yes' })).html;
-    html = (await answer(html, 'ventilator', { 'ventilator.vt': '450', 'ventilator.rr': '18' })).html;
+    html = (await answer(html, 'ventilator', { 'ventilator.vt': '450', 'ventilator.rr': '18' }))
+      .html;
     expect(openId(html)).toBeNull();
     expect(html).not.toContain('<script>alert(1)');
     expect(html).toContain('Gas 1 of 2, &lt;script&gt;alert(1)&lt;/script&gt;');

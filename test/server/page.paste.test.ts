@@ -6,36 +6,66 @@ import { describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app.ts';
 import { interpret } from '../../calc/index.ts';
 import { createNoteRenderer } from '../../templates/index.ts';
-import { caseOf, hidden, openId, openStep, stateOf, textareaOf, unescape, poster, type Fields } from './pageHtml.ts';
+import {
+  caseOf,
+  hidden,
+  openId,
+  openStep,
+  stateOf,
+  textareaOf,
+  unescape,
+  poster,
+  type Fields,
+} from './pageHtml.ts';
 import { PRINTOUT } from './fixtures.ts';
 
 const app = createApp();
 const renderer = createNoteRenderer();
 
-
-const announced = (html: string) => unescape(html.match(/<hx-partial hx-target="#announce" hx-swap="innerHTML">([\s\S]*?)<\/hx-partial>/)?.[1] ?? '');
+const announced = (html: string) =>
+  unescape(
+    html.match(
+      /<hx-partial hx-target="#announce" hx-swap="innerHTML">([\s\S]*?)<\/hx-partial>/,
+    )?.[1] ?? '',
+  );
 /** The rows of the "Values read" table as [result, read as, from]: tags and layout spacing removed, the source text as written. */
 function readRows(html: string): string[][] {
-  const body = html.match(/<table class="read-table">[\s\S]*?<tbody>([\s\S]*?)<\/tbody>/)?.[1] ?? '';
-  const text = (cell: string) => unescape(cell.replace(/<[^>]+>/g, ' ').replace(/\s+/g, ' ').trim());
+  const body =
+    html.match(/<table class="read-table">[\s\S]*?<tbody>([\s\S]*?)<\/tbody>/)?.[1] ?? '';
+  const text = (cell: string) =>
+    unescape(
+      cell
+        .replace(/<[^>]+>/g, ' ')
+        .replace(/\s+/g, ' ')
+        .trim(),
+    );
   return [...body.matchAll(/<tr>([\s\S]*?)<\/tr>/g)].map((row) =>
     [...row[1]!.matchAll(/<t[hd][^>]*>([\s\S]*?)<\/t[hd]>/g)].map((cell) => {
       const code = cell[1]!.match(/^<code>([\s\S]*)<\/code>$/);
       return code ? unescape(code[1]!) : text(cell[1]!);
-    }));
+    }),
+  );
 }
 
 const post = poster(app);
 const EMPTY = { case: '{}', done: '', format: 'text' };
-const read = (paste: string, state: Fields = EMPTY, htmx = true) => post('/paste', { ...state, paste, action: 'read' }, htmx);
+const read = (paste: string, state: Fields = EMPTY, htmx = true) =>
+  post('/paste', { ...state, paste, action: 'read' }, htmx);
 /** Confirm what the page showed: the text and the fingerprint it carried, with the answers given. */
 const confirm = (shown: string, paste: string, answers: Fields = {}) =>
-  post('/paste', { ...stateOf(shown), paste, pasteRead: hidden(shown, 'pasteRead'), action: 'confirm', ...answers });
-const answer = (html: string, step: string, fields: Fields) => post('/step', { ...stateOf(html), step, action: 'next', ...fields });
-
+  post('/paste', {
+    ...stateOf(shown),
+    paste,
+    pasteRead: hidden(shown, 'pasteRead'),
+    action: 'confirm',
+    ...answers,
+  });
+const answer = (html: string, step: string, fields: Fields) =>
+  post('/step', { ...stateOf(html), step, action: 'next', ...fields });
 
 const PRINTOUT_CASE = {
-  sample: 'arterial', units: { pressure: 'mmHg' },
+  sample: 'arterial',
+  units: { pressure: 'mmHg' },
   gas: { ph: 7.26, pco2: 29, po2: 84, hco3: 13.6, baseExcess: -12.4, lactate: 7.8 },
   chemistry: { na: 141, k: 4.6, cl: 103 },
   oxygen: { fio2: 21 },
@@ -46,19 +76,32 @@ describe('the first step offers a paste', () => {
     const html = await (await app.request('/')).text();
     const step = openStep(html);
     expect(openId(html)).toBe('sample');
-    expect(step).toMatch(/<form class="paste-form" method="post" action="\/paste" enctype="multipart\/form-data" hx-post="\/paste"/);
-    expect(step).toContain('<label class="field-label" for="paste-text">Or paste the results</label>');
+    expect(step).toMatch(
+      /<form class="paste-form" method="post" action="\/paste" enctype="multipart\/form-data" hx-post="\/paste"/,
+    );
+    expect(step).toContain(
+      '<label class="field-label" for="paste-text">Or paste the results</label>',
+    );
     expect(step).toContain('shorthand such as 7.31/48/72/23, or FHIR JSON');
-    expect(step).toMatch(/<textarea id="paste-text" name="paste"[^>]*aria-describedby="paste-text-hint"><\/textarea>/);
-    expect(step).toMatch(/<button type="submit" class="button" name="action" value="read">Read the pasted text<\/button>/);
+    expect(step).toMatch(
+      /<textarea id="paste-text" name="paste"[^>]*aria-describedby="paste-text-hint"><\/textarea>/,
+    );
+    expect(step).toMatch(
+      /<button type="submit" class="button" name="action" value="read">Read the pasted text<\/button>/,
+    );
     // the one-press sample buttons stay the first thing to press
     expect(step.indexOf('value="arterial" autofocus')).toBeLessThan(step.indexOf('paste-form'));
   });
 
   it('is reachable from the gas step while no gas is entered, and not once the case holds a gas', async () => {
-    const gas = (await answer(await (await app.request('/')).text(), 'sample', { sample: 'arterial' })).html;
-    expect(openStep(gas)).toContain('name="open" value="sample" class="change">Paste the results instead</button>');
-    const chem = (await answer(gas, 'gas', { 'gas.ph': '7.3', 'gas.pco2': '40', 'gas.hco3': '19' })).html;
+    const gas = (
+      await answer(await (await app.request('/')).text(), 'sample', { sample: 'arterial' })
+    ).html;
+    expect(openStep(gas)).toContain(
+      'name="open" value="sample" class="change">Paste the results instead</button>',
+    );
+    const chem = (await answer(gas, 'gas', { 'gas.ph': '7.3', 'gas.pco2': '40', 'gas.hco3': '19' }))
+      .html;
     expect(chem).not.toContain('paste-form');
     expect(chem).not.toContain('Paste the results instead');
     // and the server refuses a paste into a case that already has a gas
@@ -89,8 +132,12 @@ describe('a printout', () => {
       ['FiO2', '21 %', 'FiO2        21 %'],
     ]);
     // what was recognised and left out, and the lines that gave nothing, are listed too
-    expect(html).toContain('<li><code>Std HCO3    15.2  mmol/L</code>: standard bicarbonate is not the actual HCO3</li>');
-    expect(html).toMatch(/<summary>Lines that gave nothing \(2\)<\/summary>[\s\S]*?<code>POINT-OF-CARE BLOOD GAS        Ward 7B<\/code>[\s\S]*?<code>Operator 117<\/code>/);
+    expect(html).toContain(
+      '<li><code>Std HCO3    15.2  mmol/L</code>: standard bicarbonate is not the actual HCO3</li>',
+    );
+    expect(html).toMatch(
+      /<summary>Lines that gave nothing \(2\)<\/summary>[\s\S]*?<code>POINT-OF-CARE BLOOD GAS        Ward 7B<\/code>[\s\S]*?<code>Operator 117<\/code>/,
+    );
     expect(html).toContain('Not on the text: Albumin.');
     expect(html).not.toContain('questions before');
     // the text comes back as pasted, for a second reading
@@ -111,12 +158,15 @@ describe('a printout', () => {
     const step = openStep(html);
     expect(step).toMatch(/name="oxygen\.fio2" value="21"/);
     expect(step).toContain('<p class="remark">From the paste: FiO2. Check and go on.</p>');
-    expect(html).toMatch(/id="step-gas">[\s\S]*?<li>pH 7.26<\/li><li>PaCO2 29 mmHg<\/li><li>PaO2 84 mmHg<\/li><li>HCO3 13.6 mmol\/L<\/li><li>Base excess -12.4 mmol\/L<\/li><li>Lactate 7.8 mmol\/L<\/li>/);
+    expect(html).toMatch(
+      /id="step-gas">[\s\S]*?<li>pH 7.26<\/li><li>PaCO2 29 mmHg<\/li><li>PaO2 84 mmHg<\/li><li>HCO3 13.6 mmol\/L<\/li><li>Base excess -12.4 mmol\/L<\/li><li>Lactate 7.8 mmol\/L<\/li>/,
+    );
     expect(announced(html)).toBe('Kept from the paste: 10 values. Next: oxygen and ventilation.');
 
     // the rest as usual, to a draft written from the same case the API would get
     let page = (await answer(html, 'oxygen', { 'oxygen.fio2': '21', ventilated: 'no' })).html;
-    page = (await answer(page, 'patient', { 'patient.ageYears': '52', 'patient.pregnant': 'no' })).html;
+    page = (await answer(page, 'patient', { 'patient.ageYears': '52', 'patient.pregnant': 'no' }))
+      .html;
     const full = { ...PRINTOUT_CASE, patient: { ageYears: 52, pregnant: false } };
     expect(caseOf(page)).toEqual(full);
     const findings = interpret(full);
@@ -130,7 +180,11 @@ describe('a printout', () => {
     const shown = await read(PRINTOUT, EMPTY, false);
     expect(shown.html).toMatch(/^<!doctype html>/);
     expect(shown.html).toContain('id="step-paste"');
-    const res = await post('/paste', { ...EMPTY, paste: PRINTOUT, pasteRead: hidden(shown.html, 'pasteRead'), action: 'confirm' }, false);
+    const res = await post(
+      '/paste',
+      { ...EMPTY, paste: PRINTOUT, pasteRead: hidden(shown.html, 'pasteRead'), action: 'confirm' },
+      false,
+    );
     expect(res.html).toMatch(/^<!doctype html>/);
     expect(openId(res.html)).toBe('oxygen');
   });
@@ -163,8 +217,13 @@ describe('the shorthand', () => {
       ['HCO3', '23 mmol/L', '7.31/48/72/23'],
     ]);
     expect(html).toContain('<legend class="field-label">Sample type</legend>');
-    expect(html).toContain('The text does not say whether the sample is arterial, venous or capillary.');
-    for (const s of ['arterial', 'venous', 'capillary']) expect(html).toMatch(new RegExp(`<input type="radio" id="q-0-\\d" name="answer-0" value="${s}">`));
+    expect(html).toContain(
+      'The text does not say whether the sample is arterial, venous or capillary.',
+    );
+    for (const s of ['arterial', 'venous', 'capillary'])
+      expect(html).toMatch(
+        new RegExp(`<input type="radio" id="q-0-\\d" name="answer-0" value="${s}">`),
+      );
     // nothing is chosen for the clinician
     expect(html).not.toMatch(/name="answer-0"[^>]* checked/);
   });
@@ -172,7 +231,11 @@ describe('the shorthand', () => {
   it('confirmed with the sample answered: sample and gas answered, chemistry next', async () => {
     const shown = (await read('7.31/48/72/23')).html;
     const { html } = await confirm(shown, '7.31/48/72/23', { 'answer-0': 'arterial' });
-    expect(caseOf(html)).toEqual({ sample: 'arterial', units: { pressure: 'mmHg' }, gas: { ph: 7.31, pco2: 48, po2: 72, hco3: 23 } });
+    expect(caseOf(html)).toEqual({
+      sample: 'arterial',
+      units: { pressure: 'mmHg' },
+      gas: { ph: 7.31, pco2: 48, po2: 72, hco3: 23 },
+    });
     expect(stateOf(html).done).toBe('sample gas');
     expect(openId(html)).toBe('chemistry');
   });
@@ -189,9 +252,15 @@ describe('the shorthand', () => {
   });
 
   it('the sample chosen on the first step is kept when the text does not name one', async () => {
-    const gasPage = (await answer(await (await app.request('/')).text(), 'sample', { sample: 'arterial' })).html;
+    const gasPage = (
+      await answer(await (await app.request('/')).text(), 'sample', { sample: 'arterial' })
+    ).html;
     const shown = (await read('7.31/48/72/23', stateOf(gasPage))).html;
-    expect(readRows(shown)[0]).toEqual(['Sample type', 'Arterial', 'your answer on the first step']);
+    expect(readRows(shown)[0]).toEqual([
+      'Sample type',
+      'Arterial',
+      'your answer on the first step',
+    ]);
     expect(shown).not.toContain('name="answer-0"');
     const { html } = await confirm(shown, '7.31/48/72/23');
     expect(stateOf(html).done).toBe('sample gas');
@@ -199,9 +268,17 @@ describe('the shorthand', () => {
 
   it('a venous shorthand (VBG) leaves the PvO2 out and says so', async () => {
     const shown = (await read('VBG 7.33/52/40/27')).html;
-    expect(readRows(shown)).toContainEqual(['PvO2', '40 mmHg unit not written: the only one that fits the number not used: the PO2 and saturation of a venous sample do not show oxygenation', '7.33/52/40/27']);
+    expect(readRows(shown)).toContainEqual([
+      'PvO2',
+      '40 mmHg unit not written: the only one that fits the number not used: the PO2 and saturation of a venous sample do not show oxygenation',
+      '7.33/52/40/27',
+    ]);
     const { html } = await confirm(shown, 'VBG 7.33/52/40/27');
-    expect(caseOf(html)).toEqual({ sample: 'venous', units: { pressure: 'mmHg' }, gas: { ph: 7.33, pco2: 52, hco3: 27 } });
+    expect(caseOf(html)).toEqual({
+      sample: 'venous',
+      units: { pressure: 'mmHg' },
+      gas: { ph: 7.33, pco2: 52, hco3: 27 },
+    });
     expect(openStep(html)).toContain('Not used, as the sample is venous: PvO2 40.');
   });
 });
@@ -219,7 +296,9 @@ describe('an ambiguous unit', () => {
     expect(html).toContain('kPa fits the Henderson equation');
     expect(html).toMatch(/name="answer-0" value="mmHg"><span>12 mmHg<\/span>/);
     expect(html).toMatch(/name="answer-0" value="kPa"><span>12 kPa<\/span>/);
-    expect(html).toMatch(/name="answer-0" value="leave-out"><span>Neither: leave it out, I will enter it at the gas step<\/span>/);
+    expect(html).toMatch(
+      /name="answer-0" value="leave-out"><span>Neither: leave it out, I will enter it at the gas step<\/span>/,
+    );
     expect(html).toContain('<legend class="field-label">PaO2 40</legend>');
     expect(html).not.toMatch(/name="answer-\d"[^>]* checked/);
   });
@@ -227,7 +306,11 @@ describe('an ambiguous unit', () => {
   it('answered: the values go in with the unit chosen', async () => {
     const shown = (await read(TEXT)).html;
     const { html } = await confirm(shown, TEXT, { 'answer-0': 'kPa', 'answer-1': 'kPa' });
-    expect(caseOf(html)).toEqual({ sample: 'arterial', units: { pressure: 'kPa' }, gas: { ph: 7.12, pco2: 12, po2: 40, hco3: 28 } });
+    expect(caseOf(html)).toEqual({
+      sample: 'arterial',
+      units: { pressure: 'kPa' },
+      gas: { ph: 7.12, pco2: 12, po2: 40, hco3: 28 },
+    });
     expect(stateOf(html).done).toBe('sample gas');
   });
 
@@ -237,7 +320,9 @@ describe('an ambiguous unit', () => {
     expect(res.status).toBe(422);
     expect(openId(res.html)).toBe('paste');
     expect(caseOf(res.html)).toEqual({});
-    expect(res.html).toContain('PaO2 cannot be in mmHg: other values of the case are in kPa, and the case holds one unit for them');
+    expect(res.html).toContain(
+      'PaO2 cannot be in mmHg: other values of the case are in kPa, and the case holds one unit for them',
+    );
     // the answers given stay chosen
     expect(res.html).toMatch(/name="answer-0" value="kPa" checked>/);
   });
@@ -286,20 +371,36 @@ describe('a question with no safe answer to offer', () => {
 
 describe('a FHIR bundle', () => {
   const obs = (code: string, value: number, unit: string | null, at = '2026-03-02T04:10:00Z') => ({
-    resourceType: 'Observation', status: 'final', code: { coding: [{ system: 'http://loinc.org', code }] }, effectiveDateTime: at,
-    valueQuantity: unit === null ? { value } : { value, unit, code: unit, system: 'http://unitsofmeasure.org' },
+    resourceType: 'Observation',
+    status: 'final',
+    code: { coding: [{ system: 'http://loinc.org', code }] },
+    effectiveDateTime: at,
+    valueQuantity:
+      unit === null ? { value } : { value, unit, code: unit, system: 'http://unitsofmeasure.org' },
   });
   // LOINC (as in the intake's code list): 2744-1 pH, 2019-8 PaCO2, 2703-7 PaO2, 1960-4 HCO3 (arterial blood);
   // 2951-2 Na, 2075-0 Cl (serum); 33254-4 pH adjusted to the patient's temperature (not read). An invented
   // 74-year-old with chronic hypercapnia, in kPa.
-  const BUNDLE = JSON.stringify({
-    resourceType: 'Bundle', type: 'collection',
-    entry: [
-      { resource: { resourceType: 'Patient', id: 'demo' } },
-      ...[obs('2744-1', 7.34, '[pH]'), obs('2019-8', 8.4, 'kPa'), obs('2703-7', 8.1, 'kPa'), obs('1960-4', 33.1, 'mmol/L'),
-        obs('2951-2', 137, 'mmol/L'), obs('2075-0', 94, 'mmol/L'), obs('33254-4', 7.32, '[pH]')].map((resource) => ({ resource })),
-    ],
-  }, null, 2);
+  const BUNDLE = JSON.stringify(
+    {
+      resourceType: 'Bundle',
+      type: 'collection',
+      entry: [
+        { resource: { resourceType: 'Patient', id: 'demo' } },
+        ...[
+          obs('2744-1', 7.34, '[pH]'),
+          obs('2019-8', 8.4, 'kPa'),
+          obs('2703-7', 8.1, 'kPa'),
+          obs('1960-4', 33.1, 'mmol/L'),
+          obs('2951-2', 137, 'mmol/L'),
+          obs('2075-0', 94, 'mmol/L'),
+          obs('33254-4', 7.32, '[pH]'),
+        ].map((resource) => ({ resource })),
+      ],
+    },
+    null,
+    2,
+  );
 
   it('is read by LOINC code with its units, and lists what it did not use', async () => {
     const { status, html } = await read(BUNDLE);
@@ -308,29 +409,64 @@ describe('a FHIR bundle', () => {
     expect(readRows(html)).toEqual([
       ['Sample type', 'Arterial', 'the specimen of the LOINC codes'],
       ['pH', '7.34', '2744-1 pH of Arterial blood: 7.34 (2026-03-02T04:10:00Z)'],
-      ['PaCO2', '8.4 kPa', '2019-8 Carbon dioxide [Partial pressure] in Arterial blood: 8.4 kPa (2026-03-02T04:10:00Z)'],
-      ['PaO2', '8.1 kPa', '2703-7 Oxygen [Partial pressure] in Arterial blood: 8.1 kPa (2026-03-02T04:10:00Z)'],
-      ['HCO3', '33.1 mmol/L', '1960-4 Bicarbonate [Moles/volume] in Arterial blood: 33.1 mmol/L (2026-03-02T04:10:00Z)'],
-      ['Na', '137 mmol/L', '2951-2 Sodium [Moles/volume] in Serum or Plasma: 137 mmol/L (2026-03-02T04:10:00Z)'],
-      ['Cl', '94 mmol/L', '2075-0 Chloride [Moles/volume] in Serum or Plasma: 94 mmol/L (2026-03-02T04:10:00Z)'],
+      [
+        'PaCO2',
+        '8.4 kPa',
+        '2019-8 Carbon dioxide [Partial pressure] in Arterial blood: 8.4 kPa (2026-03-02T04:10:00Z)',
+      ],
+      [
+        'PaO2',
+        '8.1 kPa',
+        '2703-7 Oxygen [Partial pressure] in Arterial blood: 8.1 kPa (2026-03-02T04:10:00Z)',
+      ],
+      [
+        'HCO3',
+        '33.1 mmol/L',
+        '1960-4 Bicarbonate [Moles/volume] in Arterial blood: 33.1 mmol/L (2026-03-02T04:10:00Z)',
+      ],
+      [
+        'Na',
+        '137 mmol/L',
+        '2951-2 Sodium [Moles/volume] in Serum or Plasma: 137 mmol/L (2026-03-02T04:10:00Z)',
+      ],
+      [
+        'Cl',
+        '94 mmol/L',
+        '2075-0 Chloride [Moles/volume] in Serum or Plasma: 94 mmol/L (2026-03-02T04:10:00Z)',
+      ],
     ]);
     expect(html).toMatch(/Recognised but not used \(2\)/);
     expect(html).toContain('<code>Patient</code>: not an Observation: not read');
-    expect(html).toMatch(/<code>33254-4 pH of Arterial blood adjusted to patient&#39;s actual temperature<\/code>: temperature-corrected value/);
+    expect(html).toMatch(
+      /<code>33254-4 pH of Arterial blood adjusted to patient&#39;s actual temperature<\/code>: temperature-corrected value/,
+    );
     expect(html).toContain('Not in the payload: K, Albumin.');
   });
 
   it('confirmed: the case in kPa, and the flow at timing (a respiratory process)', async () => {
     const shown = (await read(BUNDLE)).html;
     const { html } = await confirm(shown, BUNDLE);
-    expect(caseOf(html)).toEqual({ sample: 'arterial', units: { pressure: 'kPa' }, gas: { ph: 7.34, pco2: 8.4, po2: 8.1, hco3: 33.1 }, chemistry: { na: 137, cl: 94 } });
+    expect(caseOf(html)).toEqual({
+      sample: 'arterial',
+      units: { pressure: 'kPa' },
+      gas: { ph: 7.34, pco2: 8.4, po2: 8.1, hco3: 33.1 },
+      chemistry: { na: 137, cl: 94 },
+    });
     expect(stateOf(html).done).toBe('sample gas chemistry');
     expect(openId(html)).toBe('timing');
     expect(openStep(html)).toMatch(/Usual PaCO2 <span class="unit">kPa<\/span>/);
   });
 
   it('a value without a UCUM unit is not used, and the step for it opens', async () => {
-    const bundle = JSON.stringify({ resourceType: 'Bundle', type: 'collection', entry: [obs('2744-1', 7.30, '[pH]'), obs('1960-4', 19, 'mmol/L'), { ...obs('2019-8', 40, null) }].map((resource) => ({ resource })) });
+    const bundle = JSON.stringify({
+      resourceType: 'Bundle',
+      type: 'collection',
+      entry: [
+        obs('2744-1', 7.3, '[pH]'),
+        obs('1960-4', 19, 'mmol/L'),
+        { ...obs('2019-8', 40, null) },
+      ].map((resource) => ({ resource })),
+    });
     const shown = (await read(bundle)).html;
     expect(shown).toContain('no unit. The value cannot be read without one');
     expect(readRows(shown).map((r) => r[0])).toEqual(['Sample type', 'pH', 'HCO3']);
@@ -354,7 +490,12 @@ describe('text with no result in it', () => {
     expect(html).not.toContain('Use these values');
     expect(caseOf(html)).toEqual({});
     // a confirm sent anyway is refused with a message
-    const forced = await post('/paste', { ...EMPTY, paste: 'Thank you for your order.\nResults to follow.', pasteRead: hidden(html, 'pasteRead'), action: 'confirm' });
+    const forced = await post('/paste', {
+      ...EMPTY,
+      paste: 'Thank you for your order.\nResults to follow.',
+      pasteRead: hidden(html, 'pasteRead'),
+      action: 'confirm',
+    });
     expect(forced.status).toBe(422);
     expect(forced.html).toContain('No gas value was read');
     expect(caseOf(forced.html)).toEqual({});
@@ -375,12 +516,23 @@ describe('text with no result in it', () => {
     expect(forms.length).toBe(1);
     expect(forms[0]).toContain('enctype="multipart/form-data"');
     const body = new FormData();
-    for (const [k, v] of Object.entries({ ...EMPTY, action: 'read', paste: 'pH 7.31\npCO2 48 mmHg\nHCO3 23.5 mmol/L' })) body.append(k, v);
-    const res = await app.request('/paste', { method: 'POST', body, headers: { 'hx-request': 'true' } });
+    for (const [k, v] of Object.entries({
+      ...EMPTY,
+      action: 'read',
+      paste: 'pH 7.31\npCO2 48 mmHg\nHCO3 23.5 mmol/L',
+    }))
+      body.append(k, v);
+    const res = await app.request('/paste', {
+      method: 'POST',
+      body,
+      headers: { 'hx-request': 'true' },
+    });
     expect(res.status).toBe(200);
     const html = await res.text();
     expect(html).toContain('class="paste-confirm"');
-    expect(html.match(/<form class="paste-confirm"[^>]*>/)?.[0]).toContain('enctype="multipart/form-data"');
+    expect(html.match(/<form class="paste-confirm"[^>]*>/)?.[0]).toContain(
+      'enctype="multipart/form-data"',
+    );
   });
 
   it('a body over the paste limit is refused with a message, not a failure', async () => {
@@ -390,7 +542,9 @@ describe('text with no result in it', () => {
   });
 
   it('hostile text is shown as text, never as markup', async () => {
-    const { html } = await read('pH 7.31 <img src=x onerror=alert(1)>\n<script>alert(2)</script>\npCO2 48 mmHg');
+    const { html } = await read(
+      'pH 7.31 <img src=x onerror=alert(1)>\n<script>alert(2)</script>\npCO2 48 mmHg',
+    );
     expect(html).not.toMatch(/<img|<script>alert/);
     expect(textareaOf(html, 'paste-again')).toContain('<img src=x onerror=alert(1)>'); // escaped in the page, the same text when read back
   });

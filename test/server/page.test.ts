@@ -7,13 +7,21 @@ import { describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app.ts';
 import { interpret, parseCase } from '../../calc/index.ts';
 import { createNoteRenderer } from '../../templates/index.ts';
-import { caseOf, hidden, openId, openStep, stateOf, textareaOf, unescape, type State, poster, type Fields } from './pageHtml.ts';
+import {
+  caseOf,
+  hidden,
+  openId,
+  openStep,
+  stateOf,
+  textareaOf,
+  unescape,
+  type State,
+  poster,
+  type Fields,
+} from './pageHtml.ts';
 
 const app = createApp();
 const renderer = createNoteRenderer();
-
-
-
 
 const post = poster(app);
 
@@ -21,7 +29,14 @@ const post = poster(app);
 const answer = (html: string, step: string, fields: Fields, htmx = true) =>
   post('/step', { ...stateOf(html), step, action: 'next', ...fields }, htmx);
 
-const fieldError = (html: string, id: string) => unescape(html.match(new RegExp(`<p class="error" id="${id}-error"><span class="visually-hidden">Error: </span>([^<]*)</p>`))?.[1] ?? '');
+const fieldError = (html: string, id: string) =>
+  unescape(
+    html.match(
+      new RegExp(
+        `<p class="error" id="${id}-error"><span class="visually-hidden">Error: </span>([^<]*)</p>`,
+      ),
+    )?.[1] ?? '',
+  );
 
 const start = async () => (await app.request('/')).text();
 
@@ -29,11 +44,32 @@ const start = async () => (await app.request('/')).text();
 async function toDraft(): Promise<string> {
   let html = await start();
   html = (await answer(html, 'sample', { sample: 'arterial' })).html;
-  html = (await answer(html, 'gas', { 'units.pressure': 'mmHg', 'gas.ph': '7.22', 'gas.pco2': '21', 'gas.po2': '96', 'gas.hco3': '8.5', 'gas.lactate': '6.1', 'units.hb': 'g/dL' })).html;
-  html = (await answer(html, 'chemistry', { 'chemistry.na': '137', 'chemistry.k': '4.9', 'chemistry.cl': '100', 'chemistry.albumin': '3.2', 'units.albumin': 'g/dL', 'units.glucose': 'mg/dL', 'units.urea': 'bun-mg/dL' })).html;
+  html = (
+    await answer(html, 'gas', {
+      'units.pressure': 'mmHg',
+      'gas.ph': '7.22',
+      'gas.pco2': '21',
+      'gas.po2': '96',
+      'gas.hco3': '8.5',
+      'gas.lactate': '6.1',
+      'units.hb': 'g/dL',
+    })
+  ).html;
+  html = (
+    await answer(html, 'chemistry', {
+      'chemistry.na': '137',
+      'chemistry.k': '4.9',
+      'chemistry.cl': '100',
+      'chemistry.albumin': '3.2',
+      'units.albumin': 'g/dL',
+      'units.glucose': 'mg/dL',
+      'units.urea': 'bun-mg/dL',
+    })
+  ).html;
   expect(openId(html)).toBe('oxygen');
   html = (await answer(html, 'oxygen', { 'oxygen.fio2': '0.21', ventilated: 'no' })).html;
-  html = (await answer(html, 'patient', { 'patient.ageYears': '47', 'patient.pregnant': 'no' })).html;
+  html = (await answer(html, 'patient', { 'patient.ageYears': '47', 'patient.pregnant': 'no' }))
+    .html;
   return html;
 }
 
@@ -51,7 +87,9 @@ describe('GET /: the empty page', () => {
     // htmx's own indicator stylesheet is off: it would be injected at run time
     expect(html).toContain('"includeIndicatorCSS":false');
     // one press per sample type, the first focused
-    expect(openStep(html)).toMatch(/<button type="submit" class="button quick" name="sample" value="arterial" autofocus>Arterial<\/button>/);
+    expect(openStep(html)).toMatch(
+      /<button type="submit" class="button quick" name="sample" value="arterial" autofocus>Arterial<\/button>/,
+    );
   });
 
   it('sends a strict CSP and keeps the page out of caches', async () => {
@@ -70,9 +108,13 @@ describe('each step answered with htmx returns the fragment; without htmx, the f
     expect(status).toBe(200);
     expect(html).not.toContain('<html');
     expect(html).toMatch(/^<title>Gas · Gasline<\/title>/);
-    expect(html).toMatch(/<li class="entry entry--answer" id="step-sample">[\s\S]*?<li>Arterial<\/li>/);
+    expect(html).toMatch(
+      /<li class="entry entry--answer" id="step-sample">[\s\S]*?<li>Arterial<\/li>/,
+    );
     expect(openId(html)).toBe('gas');
-    expect(html).toMatch(/<hx-partial hx-target="#announce" hx-swap="innerHTML">Sample: Arterial\. Next: gas\.<\/hx-partial>/);
+    expect(html).toMatch(
+      /<hx-partial hx-target="#announce" hx-swap="innerHTML">Sample: Arterial\. Next: gas\.<\/hx-partial>/,
+    );
     expect(JSON.parse(stateOf(html).case)).toEqual({ sample: 'arterial' });
     expect(stateOf(html).done).toBe('sample');
   });
@@ -91,17 +133,42 @@ describe('each step answered with htmx returns the fragment; without htmx, the f
     const step = openStep(html);
     expect(step).toMatch(/name="gas\.ph" value="" inputmode="decimal"[^>]* autofocus>/);
     expect(step).toMatch(/name="units\.pressure" value="mmHg" checked/);
-    for (const name of ['gas.pco2', 'gas.po2', 'gas.hco3', 'gas.baseExcess', 'gas.sao2', 'gas.lactate', 'gas.hb', 'units.hb']) expect(step).toContain(`name="${name}"`);
+    for (const name of [
+      'gas.pco2',
+      'gas.po2',
+      'gas.hco3',
+      'gas.baseExcess',
+      'gas.sao2',
+      'gas.lactate',
+      'gas.hb',
+      'units.hb',
+    ])
+      expect(step).toContain(`name="${name}"`);
     // every control has a label
-    for (const id of step.matchAll(/<(?:input|select|textarea)(?![^>]*type="hidden")[^>]*\bid="([^"]+)"/g)) {
+    for (const id of step.matchAll(
+      /<(?:input|select|textarea)(?![^>]*type="hidden")[^>]*\bid="([^"]+)"/g,
+    )) {
       expect(step).toMatch(new RegExp(`<label[^>]*for="${id[1]}"`));
     }
   });
 
   it('gas in kPa: kept as typed (comma decimals too) with the unit, and chemistry comes next', async () => {
     let html = (await answer(await start(), 'sample', { sample: 'arterial' })).html;
-    html = (await answer(html, 'gas', { 'units.pressure': 'kPa', 'gas.ph': '7,28', 'gas.pco2': '7.6', 'gas.po2': '8.9', 'gas.hco3': '26', 'units.hb': 'g/L' })).html;
-    expect(caseOf(html)).toEqual({ sample: 'arterial', units: { pressure: 'kPa', hb: 'g/L' }, gas: { ph: 7.28, pco2: 7.6, po2: 8.9, hco3: 26 } });
+    html = (
+      await answer(html, 'gas', {
+        'units.pressure': 'kPa',
+        'gas.ph': '7,28',
+        'gas.pco2': '7.6',
+        'gas.po2': '8.9',
+        'gas.hco3': '26',
+        'units.hb': 'g/L',
+      })
+    ).html;
+    expect(caseOf(html)).toEqual({
+      sample: 'arterial',
+      units: { pressure: 'kPa', hb: 'g/L' },
+      gas: { ph: 7.28, pco2: 7.6, po2: 8.9, hco3: 26 },
+    });
     expect(html).toMatch(/<li>PaCO2 7\.6 kPa<\/li>/);
     expect(openId(html)).toBe('chemistry');
     // with kPa, the chemistry units start in SI; the clinician can change them
@@ -111,8 +178,22 @@ describe('each step answered with htmx returns the fragment; without htmx, the f
 
   it('chemistry: Skip moves on with no chemistry in the case', async () => {
     let html = (await answer(await start(), 'sample', { sample: 'arterial' })).html;
-    html = (await answer(html, 'gas', { 'units.pressure': 'mmHg', 'gas.ph': '7.30', 'gas.pco2': '55', 'gas.hco3': '26.4' })).html;
-    html = (await post('/step', { ...stateOf(html), step: 'chemistry', action: 'skip', 'chemistry.na': '140' })).html;
+    html = (
+      await answer(html, 'gas', {
+        'units.pressure': 'mmHg',
+        'gas.ph': '7.30',
+        'gas.pco2': '55',
+        'gas.hco3': '26.4',
+      })
+    ).html;
+    html = (
+      await post('/step', {
+        ...stateOf(html),
+        step: 'chemistry',
+        action: 'skip',
+        'chemistry.na': '140',
+      })
+    ).html;
     expect(caseOf(html).chemistry).toBeUndefined();
     expect(html).toMatch(/id="step-chemistry">[\s\S]*?Nothing entered/);
     expect(openId(html)).toBe('timing');
@@ -120,13 +201,22 @@ describe('each step answered with htmx returns the fragment; without htmx, the f
 
   it('timing: asked for a respiratory process, with usual values in the pressure unit', async () => {
     let html = (await answer(await start(), 'sample', { sample: 'arterial' })).html;
-    html = (await answer(html, 'gas', { 'units.pressure': 'kPa', 'gas.ph': '7.30', 'gas.pco2': '7.3', 'gas.hco3': '26.4' })).html;
+    html = (
+      await answer(html, 'gas', {
+        'units.pressure': 'kPa',
+        'gas.ph': '7.30',
+        'gas.pco2': '7.3',
+        'gas.hco3': '26.4',
+      })
+    ).html;
     html = (await post('/step', { ...stateOf(html), step: 'chemistry', action: 'skip' })).html;
     const step = openStep(html);
     expect(openId(html)).toBe('timing');
     expect(step).toMatch(/name="context\.timing" value="unknown" checked/);
     expect(step).toMatch(/Usual PaCO2 <span class="unit">kPa<\/span>/);
-    html = (await answer(html, 'timing', { 'context.timing': 'chronic', 'context.baseline.pco2': '6.9' })).html;
+    html = (
+      await answer(html, 'timing', { 'context.timing': 'chronic', 'context.baseline.pco2': '6.9' })
+    ).html;
     expect(caseOf(html).context).toEqual({ timing: 'chronic', baseline: { pco2: 6.9 } });
     expect(openId(html)).toBe('oxygen');
   });
@@ -134,10 +224,19 @@ describe('each step answered with htmx returns the fragment; without htmx, the f
   it('timing: not asked when the numbers hold no respiratory process, with the reason, and can still be added', async () => {
     let html = (await answer(await start(), 'sample', { sample: 'arterial' })).html;
     // HCO3 12 with PaCO2 26: inside the Winters band 24-28 (Albert, Dell, Winters 1967)
-    html = (await answer(html, 'gas', { 'units.pressure': 'mmHg', 'gas.ph': '7.28', 'gas.pco2': '26', 'gas.hco3': '12' })).html;
+    html = (
+      await answer(html, 'gas', {
+        'units.pressure': 'mmHg',
+        'gas.ph': '7.28',
+        'gas.pco2': '26',
+        'gas.hco3': '12',
+      })
+    ).html;
     html = (await post('/step', { ...stateOf(html), step: 'chemistry', action: 'skip' })).html;
     expect(openId(html)).toBe('oxygen');
-    expect(html).toMatch(/<li class="entry entry--skipped" id="step-timing">[\s\S]*?Timing not asked: these numbers show no respiratory process/);
+    expect(html).toMatch(
+      /<li class="entry entry--skipped" id="step-timing">[\s\S]*?Timing not asked: these numbers show no respiratory process/,
+    );
     expect(html).toContain('name="open" value="timing"');
     const opened = await post('/open', { ...stateOf(html), open: 'timing' });
     expect(openId(opened.html)).toBe('timing');
@@ -145,23 +244,42 @@ describe('each step answered with htmx returns the fragment; without htmx, the f
 
   it('oxygen, not ventilated: no ventilator questions, and the reason is said', async () => {
     let html = (await answer(await start(), 'sample', { sample: 'arterial' })).html;
-    html = (await answer(html, 'gas', { 'units.pressure': 'mmHg', 'gas.ph': '7.28', 'gas.pco2': '26', 'gas.po2': '90', 'gas.hco3': '12' })).html;
+    html = (
+      await answer(html, 'gas', {
+        'units.pressure': 'mmHg',
+        'gas.ph': '7.28',
+        'gas.pco2': '26',
+        'gas.po2': '90',
+        'gas.hco3': '12',
+      })
+    ).html;
     html = (await post('/step', { ...stateOf(html), step: 'chemistry', action: 'skip' })).html;
     const step = openStep(html);
     expect(step).toContain('name="oxygen.fio2"');
     expect(step).toContain('PEEP or CPAP');
     // nothing after the open step is shown before it is answered, not even a skip
     expect(html).not.toContain('id="step-ventilator"');
-    html = (await answer(html, 'oxygen', { 'oxygen.fio2': '28', 'oxygen.peep': '', ventilated: 'no' })).html;
+    html = (
+      await answer(html, 'oxygen', { 'oxygen.fio2': '28', 'oxygen.peep': '', ventilated: 'no' })
+    ).html;
     expect(caseOf(html).oxygen).toEqual({ fio2: 28 });
     expect(caseOf(html).ventilator).toBeUndefined();
-    expect(html).toMatch(/id="step-ventilator">[\s\S]*?No ventilator questions: not on a ventilator\./);
+    expect(html).toMatch(
+      /id="step-ventilator">[\s\S]*?No ventilator questions: not on a ventilator\./,
+    );
     expect(openId(html)).toBe('patient');
   });
 
   it('oxygen: whether the patient is ventilated must be said', async () => {
     let html = (await answer(await start(), 'sample', { sample: 'arterial' })).html;
-    html = (await answer(html, 'gas', { 'units.pressure': 'mmHg', 'gas.ph': '7.28', 'gas.pco2': '26', 'gas.hco3': '12' })).html;
+    html = (
+      await answer(html, 'gas', {
+        'units.pressure': 'mmHg',
+        'gas.ph': '7.28',
+        'gas.pco2': '26',
+        'gas.hco3': '12',
+      })
+    ).html;
     html = (await post('/step', { ...stateOf(html), step: 'chemistry', action: 'skip' })).html;
     const res = await answer(html, 'oxygen', { 'oxygen.fio2': '0.3' });
     expect(res.status).toBe(422);
@@ -170,16 +288,41 @@ describe('each step answered with htmx returns the fragment; without htmx, the f
 
   it('ventilator: asked when ventilated; a target pH and a target PaCO2 together are refused at the field', async () => {
     let html = (await answer(await start(), 'sample', { sample: 'arterial' })).html;
-    html = (await answer(html, 'gas', { 'units.pressure': 'mmHg', 'gas.ph': '7.30', 'gas.pco2': '55', 'gas.po2': '70', 'gas.hco3': '26.4' })).html;
+    html = (
+      await answer(html, 'gas', {
+        'units.pressure': 'mmHg',
+        'gas.ph': '7.30',
+        'gas.pco2': '55',
+        'gas.po2': '70',
+        'gas.hco3': '26.4',
+      })
+    ).html;
     html = (await post('/step', { ...stateOf(html), step: 'chemistry', action: 'skip' })).html;
     html = (await answer(html, 'timing', { 'context.timing': 'acute' })).html;
-    html = (await answer(html, 'oxygen', { 'oxygen.fio2': '0.5', 'oxygen.peep': '8', ventilated: 'yes' })).html;
+    html = (
+      await answer(html, 'oxygen', { 'oxygen.fio2': '0.5', 'oxygen.peep': '8', ventilated: 'yes' })
+    ).html;
     expect(caseOf(html).ventilator).toEqual({});
     expect(openId(html)).toBe('ventilator');
-    const both = await answer(html, 'ventilator', { 'ventilator.vt': '480', 'ventilator.targetPh': '7.35', 'ventilator.targetPco2': '45' });
+    const both = await answer(html, 'ventilator', {
+      'ventilator.vt': '480',
+      'ventilator.targetPh': '7.35',
+      'ventilator.targetPco2': '45',
+    });
     expect(both.status).toBe(422);
-    expect(fieldError(both.html, 'f-ventilator-targetPco2')).toBe('Give a target pH or a target PaCO2, not both');
-    html = (await answer(html, 'ventilator', { 'ventilator.vt': '480', 'ventilator.rr': '14', 'ventilator.pplat': '26', 'patient.heightCm': '170', 'patient.sex': 'male', 'ventilator.targetPh': '7.35' })).html;
+    expect(fieldError(both.html, 'f-ventilator-targetPco2')).toBe(
+      'Give a target pH or a target PaCO2, not both',
+    );
+    html = (
+      await answer(html, 'ventilator', {
+        'ventilator.vt': '480',
+        'ventilator.rr': '14',
+        'ventilator.pplat': '26',
+        'patient.heightCm': '170',
+        'patient.sex': 'male',
+        'ventilator.targetPh': '7.35',
+      })
+    ).html;
     expect(caseOf(html).ventilator).toEqual({ vt: 480, rr: 14, pplat: 26, targetPh: 7.35 });
     expect(openId(html)).toBe('patient');
     // a male patient is not asked about pregnancy, and the page says why
@@ -194,20 +337,32 @@ describe('each step answered with htmx returns the fragment; without htmx, the f
     expect(step).not.toContain('name="gas.sao2"');
     expect(step).toContain('PvCO2');
     expect(step).toContain('the PO2 of a venous sample does not show arterial oxygenation');
-    html = (await answer(html, 'gas', { 'units.pressure': 'mmHg', 'gas.ph': '7.34', 'gas.pco2': '49', 'gas.hco3': '26' })).html;
+    html = (
+      await answer(html, 'gas', {
+        'units.pressure': 'mmHg',
+        'gas.ph': '7.34',
+        'gas.pco2': '49',
+        'gas.hco3': '26',
+      })
+    ).html;
     html = (await post('/step', { ...stateOf(html), step: 'chemistry', action: 'skip' })).html;
-    if (openId(html) === 'timing') html = (await answer(html, 'timing', { 'context.timing': 'unknown' })).html;
+    if (openId(html) === 'timing')
+      html = (await answer(html, 'timing', { 'context.timing': 'unknown' })).html;
     step = openStep(html);
     expect(openId(html)).toBe('oxygen');
     expect(step).not.toContain('name="oxygen.fio2"');
-    expect(step).toContain('No FiO2 asked: oxygenation (A-a gradient, P/F ratio) is not assessed from a venous sample.');
+    expect(step).toContain(
+      'No FiO2 asked: oxygenation (A-a gradient, P/F ratio) is not assessed from a venous sample.',
+    );
   });
 
   it('patient: age and pregnancy go into the case; then the draft', async () => {
     const html = await toDraft();
     expect(caseOf(html).patient).toEqual({ ageYears: 47, pregnant: false });
     expect(openId(html)).toBeNull();
-    expect(html).toContain('<h2 class="draft-title" id="draft-title" tabindex="-1" autofocus>Draft note</h2>');
+    expect(html).toContain(
+      '<h2 class="draft-title" id="draft-title" tabindex="-1" autofocus>Draft note</h2>',
+    );
   });
 });
 
@@ -219,32 +374,56 @@ describe('validation at the field, with the schema message', () => {
     const entry = { 'units.pressure': 'mmHg', 'gas.ph': '9.1', 'gas.pco2': '40', 'gas.hco3': '24' };
     const res = await answer(before, 'gas', entry);
     expect(res.status).toBe(422);
-    const expected = parseCase({ sample: 'arterial', units: { pressure: 'mmHg' }, gas: { ph: 9.1, pco2: 40, hco3: 24 } });
+    const expected = parseCase({
+      sample: 'arterial',
+      units: { pressure: 'mmHg' },
+      gas: { ph: 9.1, pco2: 40, hco3: 24 },
+    });
     expect(expected.ok).toBe(false);
-    const schemaMessage = !expected.ok ? expected.errors.find((e) => e.path === 'gas.ph')!.message : '';
+    const schemaMessage = !expected.ok
+      ? expected.errors.find((e) => e.path === 'gas.ph')!.message
+      : '';
     expect(schemaMessage).toMatch(/outside/);
     expect(fieldError(res.html, 'f-gas-ph')).toBe(schemaMessage);
-    expect(res.html).toMatch(/id="f-gas-ph" name="gas\.ph" value="9\.1"[^>]*aria-describedby="f-gas-ph-error" aria-invalid="true" autofocus>/);
+    expect(res.html).toMatch(
+      /id="f-gas-ph" name="gas\.ph" value="9\.1"[^>]*aria-describedby="f-gas-ph-error" aria-invalid="true" autofocus>/,
+    );
     expect(res.html).toContain(`<a href="#f-gas-ph">${schemaMessage}</a>`);
     expect(caseOf(res.html)).toEqual({ sample: 'arterial' });
     expect(openId(res.html)).toBe('gas');
   });
 
   it('a kPa value entered as mmHg gets the schema hint', async () => {
-    const res = await answer(await gasPage(), 'gas', { 'units.pressure': 'kPa', 'gas.ph': '7.30', 'gas.pco2': '55', 'gas.hco3': '26' });
+    const res = await answer(await gasPage(), 'gas', {
+      'units.pressure': 'kPa',
+      'gas.ph': '7.30',
+      'gas.pco2': '55',
+      'gas.hco3': '26',
+    });
     expect(res.status).toBe(422);
     expect(fieldError(res.html, 'f-gas-pco2')).toMatch(/was it entered in mmHg\?/);
   });
 
   it('a PaCO2 that looks like kPa is asked about at the unit, once; Next again keeps the unit as entered', async () => {
     // PaCO2 5.3 "mmHg" with pH 7.40: the core's unit screen (clinical-scope section 3) calls it ambiguous
-    const entry = { 'units.pressure': 'mmHg', 'gas.ph': '7.40', 'gas.pco2': '5.3', 'gas.hco3': '24' };
+    const entry = {
+      'units.pressure': 'mmHg',
+      'gas.ph': '7.40',
+      'gas.pco2': '5.3',
+      'gas.hco3': '24',
+    };
     const asked = await answer(await gasPage(), 'gas', entry);
     expect(asked.status).toBe(422);
-    expect(fieldError(asked.html, 'f-units-pressure')).toBe('PCO2 5.3 mmHg with pH 7.4 looks like kPa: check the unit on the printout. To keep mmHg, press Next again.');
+    expect(fieldError(asked.html, 'f-units-pressure')).toBe(
+      'PCO2 5.3 mmHg with pH 7.4 looks like kPa: check the unit on the printout. To keep mmHg, press Next again.',
+    );
     expect(asked.html).toContain('<input type="hidden" name="unitAsked" value="mmHg">');
     // the clinician picks kPa: accepted and the reading goes on
-    const fixed = await answer(asked.html, 'gas', { ...entry, 'units.pressure': 'kPa', unitAsked: 'mmHg' });
+    const fixed = await answer(asked.html, 'gas', {
+      ...entry,
+      'units.pressure': 'kPa',
+      unitAsked: 'mmHg',
+    });
     expect(openId(fixed.html)).toBe('chemistry');
     expect((caseOf(fixed.html).units as Record<string, string>).pressure).toBe('kPa');
     // or keeps mmHg on purpose: accepted too, and the core will withhold the reading and say why
@@ -253,7 +432,11 @@ describe('validation at the field, with the schema message', () => {
   });
 
   it('text where a number belongs gets the schema message for a non-number', async () => {
-    const res = await answer(await gasPage(), 'gas', { 'gas.ph': 'seven', 'gas.pco2': '40', 'gas.hco3': '24' });
+    const res = await answer(await gasPage(), 'gas', {
+      'gas.ph': 'seven',
+      'gas.pco2': '40',
+      'gas.hco3': '24',
+    });
     expect(res.status).toBe(422);
     expect(fieldError(res.html, 'f-gas-ph')).toBe('pH must be a number');
   });
@@ -261,12 +444,15 @@ describe('validation at the field, with the schema message', () => {
   it('fewer than two of pH, PaCO2 and HCO3: the message is shown for the step', async () => {
     const res = await answer(await gasPage(), 'gas', { 'gas.ph': '7.3' });
     expect(res.status).toBe(422);
-    expect(res.html).toContain('<li>Give at least two of pH, PaCO2 and HCO3 (the third follows from the Henderson equation)</li>');
+    expect(res.html).toContain(
+      '<li>Give at least two of pH, PaCO2 and HCO3 (the third follows from the Henderson equation)</li>',
+    );
   });
 
   it('an out-of-range chemistry value is refused at its field', async () => {
     let html = await gasPage();
-    html = (await answer(html, 'gas', { 'gas.ph': '7.28', 'gas.pco2': '26', 'gas.hco3': '12' })).html;
+    html = (await answer(html, 'gas', { 'gas.ph': '7.28', 'gas.pco2': '26', 'gas.hco3': '12' }))
+      .html;
     const res = await answer(html, 'chemistry', { 'chemistry.na': '137', 'chemistry.k': '14' });
     expect(res.status).toBe(422);
     expect(fieldError(res.html, 'f-chemistry-k')).toMatch(/^K 14 mmol\/L is outside 1-10 mmol\/L/);
@@ -275,7 +461,16 @@ describe('validation at the field, with the schema message', () => {
   it('a tampered case is refused: no step and no draft is built from it', async () => {
     const bad = JSON.stringify({ sample: 'arterial', gas: { ph: 9.1, pco2: 40, hco3: 24 } });
     for (const path of ['/step', '/open']) {
-      const res = await post(path, { case: bad, done: 'sample gas chemistry timing oxygen patient', format: 'text', step: 'patient' }, false);
+      const res = await post(
+        path,
+        {
+          case: bad,
+          done: 'sample gas chemistry timing oxygen patient',
+          format: 'text',
+          step: 'patient',
+        },
+        false,
+      );
       expect(res.status).toBe(400);
       expect(res.html).toContain('did not pass the checks: gas.ph: pH 9.1 is outside');
       expect(res.html).not.toContain('draft-title');
@@ -294,7 +489,11 @@ describe('validation at the field, with the schema message', () => {
   });
 
   it('only form posts are taken', async () => {
-    const res = await app.request('/step', { method: 'POST', headers: { 'content-type': 'application/json' }, body: '{}' });
+    const res = await app.request('/step', {
+      method: 'POST',
+      headers: { 'content-type': 'application/json' },
+      body: '{}',
+    });
     expect(res.status).toBe(415);
     const big = await post('/step', { case: '{}', filler: 'x'.repeat(70 * 1024) });
     expect(big.status).toBe(413);
@@ -306,10 +505,12 @@ describe('the draft', () => {
     const html = await toDraft();
     // the case as a clinician would send it to the API, built by hand rather than read from the page
     const expectedCase = {
-      sample: 'arterial', units: { pressure: 'mmHg', hb: 'g/dL', albumin: 'g/dL', glucose: 'mg/dL', urea: 'bun-mg/dL' },
+      sample: 'arterial',
+      units: { pressure: 'mmHg', hb: 'g/dL', albumin: 'g/dL', glucose: 'mg/dL', urea: 'bun-mg/dL' },
       gas: { ph: 7.22, pco2: 21, po2: 96, hco3: 8.5, lactate: 6.1 },
       chemistry: { na: 137, k: 4.9, cl: 100, albumin: 3.2 },
-      oxygen: { fio2: 0.21 }, patient: { ageYears: 47, pregnant: false },
+      oxygen: { fio2: 0.21 },
+      patient: { ageYears: 47, pregnant: false },
     };
     expect(caseOf(html)).toEqual(expectedCase);
     const findings = interpret(expectedCase);
@@ -323,7 +524,15 @@ describe('the draft', () => {
     expect(html).toContain('<code>AG = Na - (Cl + HCO3)</code>');
     expect(html).toContain('Inputs</span> Na 137 mmol/L; Cl 100 mmol/L; HCO3 8.5 mmol/L');
     expect(findings.flags.length).toBeGreaterThan(0);
-    expect(html).toContain(renderer.flagMessage(findings.flags[0]!, findings).replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;').replace(/'/g, '&#39;'));
+    expect(html).toContain(
+      renderer
+        .flagMessage(findings.flags[0]!, findings)
+        .replace(/&/g, '&amp;')
+        .replace(/</g, '&lt;')
+        .replace(/>/g, '&gt;')
+        .replace(/"/g, '&quot;')
+        .replace(/'/g, '&#39;'),
+    );
     expect(html).toContain('data-copy="note-text"');
     expect(html).toContain('<a class="button" href="/">New case</a>');
   });
@@ -337,7 +546,13 @@ describe('the draft', () => {
     expect(openStep(opened.html)).toMatch(/name="chemistry\.cl" value="100"/);
     // the later answers stay on the page while one is changed
     expect(opened.html).toMatch(/id="step-patient">[\s\S]*?Age 47/);
-    const changed = await answer(opened.html, 'chemistry', { 'chemistry.na': '137', 'chemistry.k': '4.9', 'chemistry.cl': '112', 'chemistry.albumin': '3.2', 'units.albumin': 'g/dL' });
+    const changed = await answer(opened.html, 'chemistry', {
+      'chemistry.na': '137',
+      'chemistry.k': '4.9',
+      'chemistry.cl': '112',
+      'chemistry.albumin': '3.2',
+      'units.albumin': 'g/dL',
+    });
     expect(openId(changed.html)).toBeNull();
     const after = textareaOf(changed.html, 'note-text');
     expect(after).not.toBe(before);
@@ -350,7 +565,8 @@ describe('the draft', () => {
     const opened = await post('/open', { ...stateOf(html), open: 'sample' });
     let changed = await answer(opened.html, 'sample', { sample: 'venous' });
     // the venous reading may now show a respiratory process, and so ask for its timing
-    if (openId(changed.html) === 'timing') changed = await answer(changed.html, 'timing', { 'context.timing': 'unknown' });
+    if (openId(changed.html) === 'timing')
+      changed = await answer(changed.html, 'timing', { 'context.timing': 'unknown' });
     const c = caseOf(changed.html) as { gas: Record<string, unknown>; oxygen?: unknown };
     expect(c.gas.po2).toBeUndefined();
     expect(c.oxygen).toBeUndefined();
@@ -364,13 +580,22 @@ describe('the draft', () => {
     expect(stateOf(md.html).format).toBe('markdown');
     const findings = interpret(JSON.parse(stateOf(md.html).case));
     if (!findings.ok) throw new Error('accepted case expected');
-    expect(textareaOf(md.html, 'note-text')).toBe(renderer.render(findings, { format: 'markdown' }).text);
+    expect(textareaOf(md.html, 'note-text')).toBe(
+      renderer.render(findings, { format: 'markdown' }).text,
+    );
     expect(md.html).toMatch(/<div class="preview" id="preview">[\s\S]*<(p|h\d|ul|strong)>/);
-    const preview = await post('/preview', { ...stateOf(md.html), note: '**Plan** <script>alert(1)</script><img src=x onerror=alert(2)> [x](javascript:alert(3))' });
+    const preview = await post('/preview', {
+      ...stateOf(md.html),
+      note: '**Plan** <script>alert(1)</script><img src=x onerror=alert(2)> [x](javascript:alert(3))',
+    });
     expect(preview.html).toContain('<strong>Plan</strong>');
     expect(preview.html).not.toMatch(/<script|<img|onerror|javascript:/);
     // without htmx the whole page comes back with the clinician's own text kept
-    const full = await post('/preview', { ...stateOf(md.html), note: 'My own words', handover: 'My handover' }, false);
+    const full = await post(
+      '/preview',
+      { ...stateOf(md.html), note: 'My own words', handover: 'My handover' },
+      false,
+    );
     expect(textareaOf(full.html, 'note-text')).toBe('My own words');
     expect(textareaOf(full.html, 'handover-text')).toBe('My handover');
     expect(full.html).toContain('<p>My own words</p>');
@@ -383,7 +608,9 @@ describe('static files', () => {
     const res = await app.request('/static/htmx.min.js');
     expect(res.status).toBe(200);
     expect(res.headers.get('content-type')).toMatch(/^text\/javascript/);
-    expect(new Uint8Array(await res.arrayBuffer())).toEqual(new Uint8Array(readFileSync(require.resolve('htmx.org/dist/htmx.min.js'))));
+    expect(new Uint8Array(await res.arrayBuffer())).toEqual(
+      new Uint8Array(readFileSync(require.resolve('htmx.org/dist/htmx.min.js'))),
+    );
     expect((await app.request('/static/gasline.css')).status).toBe(200);
     expect((await app.request('/static/gasline.js')).status).toBe(200);
     expect((await app.request('/static/../server/app.ts')).status).toBe(404);

@@ -1,7 +1,13 @@
 // Reading the page's HTML in tests: the hidden state, the open step, a text area.
 import type { Hono } from 'hono';
 
-export const unescape = (s: string) => s.replace(/&quot;/g, '"').replace(/&#39;/g, "'").replace(/&lt;/g, '<').replace(/&gt;/g, '>').replace(/&amp;/g, '&');
+export const unescape = (s: string) =>
+  s
+    .replace(/&quot;/g, '"')
+    .replace(/&#39;/g, "'")
+    .replace(/&lt;/g, '<')
+    .replace(/&gt;/g, '>')
+    .replace(/&amp;/g, '&');
 
 export function hidden(html: string, name: string): string {
   const m = html.match(new RegExp(`<input type="hidden" name="${name}" value="([^"]*)"`));
@@ -10,21 +16,35 @@ export function hidden(html: string, name: string): string {
 }
 
 export type State = { case: string; done: string; format: string };
-export const stateOf = (html: string): State => ({ case: hidden(html, 'case'), done: hidden(html, 'done'), format: hidden(html, 'format') });
+export const stateOf = (html: string): State => ({
+  case: hidden(html, 'case'),
+  done: hidden(html, 'done'),
+  format: hidden(html, 'format'),
+});
 export const caseOf = (html: string) => JSON.parse(hidden(html, 'case')) as Record<string, unknown>;
-export const openId = (html: string) => html.match(/<li class="entry entry--open" id="step-([a-z]+)">/)?.[1] ?? null;
+export const openId = (html: string) =>
+  html.match(/<li class="entry entry--open" id="step-([a-z]+)">/)?.[1] ?? null;
 /** The open step's section (the form being asked). */
-export const openStep = (html: string) => html.match(/<li class="entry entry--open" id="step-([a-z]+)">([\s\S]*?)<\/li>\s*(?=<li|<\/ol>)/)?.[0] ?? '';
-export const textareaOf = (html: string, id: string) => unescape(html.match(new RegExp(`<textarea id="${id}"[^>]*>([\\s\\S]*?)</textarea>`))?.[1] ?? '');
+export const openStep = (html: string) =>
+  html.match(
+    /<li class="entry entry--open" id="step-([a-z]+)">([\s\S]*?)<\/li>\s*(?=<li|<\/ol>)/,
+  )?.[0] ?? '';
+export const textareaOf = (html: string, id: string) =>
+  unescape(html.match(new RegExp(`<textarea id="${id}"[^>]*>([\\s\\S]*?)</textarea>`))?.[1] ?? '');
 
 export type Fields = Record<string, string>;
 
 /** A form post as the page sends it (an htmx request unless htmx is false), read back as HTML. */
-export const poster = (app: Pick<Hono, 'request'>) => async (path: string, fields: Fields, htmx = true) => {
-  const res = await app.request(path, {
-    method: 'POST',
-    headers: { 'content-type': 'application/x-www-form-urlencoded', ...(htmx ? { 'hx-request': 'true' } : {}) },
-    body: new URLSearchParams(fields).toString(),
-  });
-  return { status: res.status, html: await res.text(), headers: res.headers };
-};
+export const poster =
+  (app: Pick<Hono, 'request'>) =>
+  async (path: string, fields: Fields, htmx = true) => {
+    const res = await app.request(path, {
+      method: 'POST',
+      headers: {
+        'content-type': 'application/x-www-form-urlencoded',
+        ...(htmx ? { 'hx-request': 'true' } : {}),
+      },
+      body: new URLSearchParams(fields).toString(),
+    });
+    return { status: res.status, html: await res.text(), headers: res.headers };
+  };

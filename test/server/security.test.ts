@@ -16,23 +16,32 @@ describe('security headers on every response', () => {
     expect(res.headers.get('x-content-type-options')).toBe('nosniff');
     expect(res.headers.get('referrer-policy')).toBe('no-referrer');
     expect(res.headers.get('x-frame-options')).toBe('DENY');
-    expect(res.headers.get('permissions-policy')).toMatch(/camera=\(\).*microphone=\(\).*geolocation=\(\)/);
+    expect(res.headers.get('permissions-policy')).toMatch(
+      /camera=\(\).*microphone=\(\).*geolocation=\(\)/,
+    );
   });
 });
 
 describe('origin check on form posts', () => {
-  const form = (headers: Record<string, string>) => app.request('/step', {
-    method: 'POST', headers: { 'content-type': 'application/x-www-form-urlencoded', ...headers }, body: 'step=sample&sample=arterial',
-  });
+  const form = (headers: Record<string, string>) =>
+    app.request('/step', {
+      method: 'POST',
+      headers: { 'content-type': 'application/x-www-form-urlencoded', ...headers },
+      body: 'step=sample&sample=arterial',
+    });
 
   it('a post from another site is refused with 403', async () => {
-    expect((await form({ origin: 'https://attacker.example', 'sec-fetch-site': 'cross-site' })).status).toBe(403);
+    expect(
+      (await form({ origin: 'https://attacker.example', 'sec-fetch-site': 'cross-site' })).status,
+    ).toBe(403);
     expect((await form({ origin: 'https://attacker.example' })).status).toBe(403);
     expect((await form({ 'sec-fetch-site': 'cross-site' })).status).toBe(403);
   });
 
   it('a post from this page passes', async () => {
-    expect((await form({ origin: 'http://localhost', 'sec-fetch-site': 'same-origin' })).status).not.toBe(403);
+    expect(
+      (await form({ origin: 'http://localhost', 'sec-fetch-site': 'same-origin' })).status,
+    ).not.toBe(403);
     expect((await form({ 'sec-fetch-site': 'same-origin' })).status).not.toBe(403);
     expect((await form({ origin: 'http://localhost' })).status).not.toBe(403);
   });
@@ -43,7 +52,8 @@ describe('origin check on form posts', () => {
 
   it('JSON to the API is not a form post and is not refused by origin', async () => {
     const res = await app.request('/api/interpret', {
-      method: 'POST', headers: { 'content-type': 'application/json', origin: 'https://other.example' },
+      method: 'POST',
+      headers: { 'content-type': 'application/json', origin: 'https://other.example' },
       body: JSON.stringify({ gas: { ph: 7.4, pco2: 40, hco3: 24 } }),
     });
     expect(res.status).toBe(200);
@@ -51,10 +61,17 @@ describe('origin check on form posts', () => {
 });
 
 describe('a form body that cannot be read', () => {
-  it.each(['/step', '/open', '/preview', '/paste', '/followup'])('%s answers 400, not 500 (found by the HTTP fuzz)', async (path) => {
-    for (const type of ['multipart/form-data', 'multipart/form-data; boundary=xyz']) {
-      const res = await app.request(path, { method: 'POST', headers: { 'content-type': type }, body: 'garbage' });
-      expect(res.status, `${path} ${type}`).toBe(400);
-    }
-  });
+  it.each(['/step', '/open', '/preview', '/paste', '/followup'])(
+    '%s answers 400, not 500 (found by the HTTP fuzz)',
+    async (path) => {
+      for (const type of ['multipart/form-data', 'multipart/form-data; boundary=xyz']) {
+        const res = await app.request(path, {
+          method: 'POST',
+          headers: { 'content-type': type },
+          body: 'garbage',
+        });
+        expect(res.status, `${path} ${type}`).toBe(400);
+      }
+    },
+  );
 });

@@ -7,9 +7,20 @@ import { interpret, type Findings } from '../../calc/index.ts';
 const ucumUtils = createRequire(import.meta.url)('@lhncbc/ucum-lhc').UcumLhcUtils.getInstance();
 
 /** Convert with the UCUM library, an outside reference for the units the note prints. */
-export function ucum(fromCode: string, value: number, toCode: string, molecularWeight?: number): number {
-  const result = ucumUtils.convertUnitTo(fromCode, value, toCode, molecularWeight === undefined ? {} : { molecularWeight });
-  if (result.status !== 'succeeded') throw new Error(`UCUM could not convert ${fromCode} to ${toCode}: ${result.msg}`);
+export function ucum(
+  fromCode: string,
+  value: number,
+  toCode: string,
+  molecularWeight?: number,
+): number {
+  const result = ucumUtils.convertUnitTo(
+    fromCode,
+    value,
+    toCode,
+    molecularWeight === undefined ? {} : { molecularWeight },
+  );
+  if (result.status !== 'succeeded')
+    throw new Error(`UCUM could not convert ${fromCode} to ${toCode}: ${result.msg}`);
   return result.toVal as number;
 }
 
@@ -28,7 +39,16 @@ export const ventilatedMmHg = {
   sample: 'arterial',
   units: { pressure: 'mmHg', albumin: 'g/dL', glucose: 'mg/dL', urea: 'bun-mg/dL' },
   gas: { ph: 7.31, pco2: 48, po2: 72, hco3: 23.5, lactate: 1.1, sao2: 93, hb: 12.1 },
-  chemistry: { na: 138, k: 4.1, cl: 104, albumin: 3.1, glucose: 110, urea: 18, creatinine: 1.0, osmolality: 290 },
+  chemistry: {
+    na: 138,
+    k: 4.1,
+    cl: 104,
+    albumin: 3.1,
+    glucose: 110,
+    urea: 18,
+    creatinine: 1.0,
+    osmolality: 290,
+  },
   patient: { ageYears: 64, sex: 'female', heightCm: 162 },
   context: { timing: 'acute' },
   oxygen: { fio2: 0.4, peep: 8 },
@@ -42,7 +62,13 @@ export const ventilatedKpa = {
   ...ventilatedMmHg,
   units: { pressure: 'kPa', albumin: 'g/L', glucose: 'mmol/L', urea: 'urea-mmol/L' },
   gas: { ...ventilatedMmHg.gas, pco2: 6.4, po2: 9.6 },
-  chemistry: { ...ventilatedMmHg.chemistry, albumin: 31, glucose: 6.1, urea: 6.4, creatinine: undefined },
+  chemistry: {
+    ...ventilatedMmHg.chemistry,
+    albumin: 31,
+    glucose: 6.1,
+    urea: 6.4,
+    creatinine: undefined,
+  },
   previous: [{ takenAt: '2026-03-02T04:10', gas: { ph: 7.22, pco2: 8.1, hco3: 24.3 } }],
 } as const;
 
@@ -235,7 +261,29 @@ export const kpaWithheld = {
 
 /** Every case by name, for the checks that hold for all notes. */
 export const ALL_CASES: Record<string, unknown> = {
-  ventilatedMmHg, ventilatedKpa, ketoacidosis, septicMixed, triple, diarrhoea, vomiting, copdVentilated, breathless,
-  venousLow, venousVentilated, capillary, pregnancy, withheld, inconsistent, toxicAlcohol, minimal, adolescent, ards,
-  noFio2, estimatedBaseline, coldAltitude, shortStature, deadSpace, kpaWithheld,
+  ventilatedMmHg,
+  ventilatedKpa,
+  ketoacidosis,
+  septicMixed,
+  triple,
+  diarrhoea,
+  vomiting,
+  copdVentilated,
+  breathless,
+  venousLow,
+  venousVentilated,
+  capillary,
+  pregnancy,
+  withheld,
+  inconsistent,
+  toxicAlcohol,
+  minimal,
+  adolescent,
+  ards,
+  noFio2,
+  estimatedBaseline,
+  coldAltitude,
+  shortStature,
+  deadSpace,
+  kpaWithheld,
 };

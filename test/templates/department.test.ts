@@ -15,9 +15,12 @@ function departmentFolder(files: Record<string, string>): string {
   for (const [name, text] of Object.entries(files)) writeFileSync(path.join(dir, name), text);
   return dir;
 }
-afterEach(() => { while (folders.length) rmSync(folders.pop() as string, { recursive: true, force: true }); });
+afterEach(() => {
+  while (folders.length) rmSync(folders.pop() as string, { recursive: true, force: true });
+});
 
-const CUSTOM_LINE = '{% import "words.njk" as w with context %}Gas ({{ w.sampleName() }}) reviewed: pH {{ v.gas.ph }}{% if v.gas.pco2 %}, PaCO2 {{ v.gas.pco2 }}{% endif %}.';
+const CUSTOM_LINE =
+  '{% import "words.njk" as w with context %}Gas ({{ w.sampleName() }}) reviewed: pH {{ v.gas.ph }}{% if v.gas.pco2 %}, PaCO2 {{ v.gas.pco2 }}{% endif %}.';
 
 describe('department templates', () => {
   const findings = read(C.ventilatedMmHg);
@@ -40,7 +43,8 @@ describe('department templates', () => {
 
   it('a section included by the note can be overridden on its own', () => {
     const dir = departmentFolder({
-      'cautions.njk': '{% import "format.njk" as f with context %}{% call f.section("Local cautions") %}- Ward 7 policy: call the ICU registrar for any critical value.{% endcall %}',
+      'cautions.njk':
+        '{% import "format.njk" as f with context %}{% call f.section("Local cautions") %}- Ward 7 policy: call the ICU registrar for any critical value.{% endcall %}',
     });
     const note = createNoteRenderer({ templateDir: dir }).render(findings, { format: 'markdown' });
     expect(note.text).toMatch(/^## Local cautions$/m);
@@ -61,7 +65,9 @@ describe('department templates', () => {
   });
 
   it('a folder that does not exist is a clear error, not a silent fall-back', () => {
-    expect(() => createNoteRenderer({ templateDir: path.join(os.tmpdir(), 'gasline-no-such-folder-4f1c') })).toThrow(/does not exist/);
+    expect(() =>
+      createNoteRenderer({ templateDir: path.join(os.tmpdir(), 'gasline-no-such-folder-4f1c') }),
+    ).toThrow(/does not exist/);
   });
 
   it('no folder, null or empty: the defaults', () => {
@@ -81,7 +87,10 @@ describe('the default templates hold wording, not arithmetic', () => {
   const files = readdirSync(DEFAULT_TEMPLATE_DIR).filter((f) => f.endsWith('.njk'));
 
   it.each(files)('%s: no arithmetic or number filters inside template tags', (file) => {
-    const text = readFileSync(path.join(DEFAULT_TEMPLATE_DIR, file), 'utf8').replace(/\{#[\s\S]*?#\}/g, '');
+    const text = readFileSync(path.join(DEFAULT_TEMPLATE_DIR, file), 'utf8').replace(
+      /\{#[\s\S]*?#\}/g,
+      '',
+    );
     const tags = [...text.matchAll(/\{([{%])-?([\s\S]*?)-?[}%]\}/g)].map((m) => m[2] ?? '');
     for (const tag of tags) {
       const code = tag.replace(/"[^"]*"|'[^']*'/g, '""');

@@ -64,8 +64,18 @@ describe('flag codes', () => {
   it('are read from calc/flags.ts (the list is not empty and holds the contract codes)', () => {
     expect(ALL_CODES.length).toBeGreaterThan(20);
     // interface-contract.md: flags[].code at least these
-    for (const code of ['values_inconsistent', 'po2_above_alveolar', 'oxygenation_not_assessable', 'adult_rules_only', 'critical_value',
-      'vt_above_8_ml_per_kg', 'rr_above_35', 'unit_ambiguous', 'target_pco2_above_compensation', 'target_pco2_below_baseline']) {
+    for (const code of [
+      'values_inconsistent',
+      'po2_above_alveolar',
+      'oxygenation_not_assessable',
+      'adult_rules_only',
+      'critical_value',
+      'vt_above_8_ml_per_kg',
+      'rr_above_35',
+      'unit_ambiguous',
+      'target_pco2_above_compensation',
+      'target_pco2_below_baseline',
+    ]) {
       expect(ALL_CODES).toContain(code);
     }
   });
@@ -96,18 +106,29 @@ describe.each(ALL_CODES)('flagMessage(%s)', (code) => {
 });
 
 describe('flag messages carry the numbers', () => {
-  const message = (code: FlagCode, findings = mmHgFindings) => renderer.flagMessage({ code, severity: 'warning', values: SAMPLE_VALUES[code] }, findings);
+  const message = (code: FlagCode, findings = mmHgFindings) =>
+    renderer.flagMessage({ code, severity: 'warning', values: SAMPLE_VALUES[code] }, findings);
 
   it('pressures in the clinician unit (kPa by UCUM conversion)', () => {
-    expect(message('po2_above_alveolar')).toContain('PaO2 130 mmHg is above the calculated alveolar PO2 of 102 mmHg on FiO2 0.21');
-    expect(message('po2_above_alveolar', kpaFindings)).toContain(`PaO2 ${kpaText(130)} is above the calculated alveolar PO2 of ${kpaText(102)}`);
+    expect(message('po2_above_alveolar')).toContain(
+      'PaO2 130 mmHg is above the calculated alveolar PO2 of 102 mmHg on FiO2 0.21',
+    );
+    expect(message('po2_above_alveolar', kpaFindings)).toContain(
+      `PaO2 ${kpaText(130)} is above the calculated alveolar PO2 of ${kpaText(102)}`,
+    );
     const kpa = (mmHg: number) => ucum('mm[Hg]', mmHg, 'kPa').toFixed(1);
-    expect(message('target_pco2_above_compensation', kpaFindings)).toContain(`target PCO2 of ${kpaText(40)} is above the ${kpa(26)}-${kpa(30)} kPa`);
-    expect(message('target_pco2_below_baseline')).toMatch(/45 mmHg is below this patient's usual 58 mmHg \(estimated\)/);
+    expect(message('target_pco2_above_compensation', kpaFindings)).toContain(
+      `target PCO2 of ${kpaText(40)} is above the ${kpa(26)}-${kpa(30)} kPa`,
+    );
+    expect(message('target_pco2_below_baseline')).toMatch(
+      /45 mmHg is below this patient's usual 58 mmHg \(estimated\)/,
+    );
   });
 
   it('ventilator values and limits', () => {
-    expect(message('vt_above_8_ml_per_kg')).toBe('VT 560 mL is 9.4 mL/kg PBW, which is above 8 mL/kg PBW: consider a smaller VT for lung protection.');
+    expect(message('vt_above_8_ml_per_kg')).toBe(
+      'VT 560 mL is 9.4 mL/kg PBW, which is above 8 mL/kg PBW: consider a smaller VT for lung protection.',
+    );
     expect(message('rr_above_35')).toMatch(/RR 38\/min is above 35\/min/);
     expect(message('plateau_above_30')).toMatch(/33 cmH2O is above 30 cmH2O/);
     expect(message('driving_pressure_above_15')).toMatch(/18 cmH2O is above 15 cmH2O/);
@@ -115,16 +136,28 @@ describe('flag messages carry the numbers', () => {
   });
 
   it('a critical value names the value and the limit', () => {
-    expect(message('critical_value')).toBe('Critical value: PaO2 52 mmHg is below the limit of 60 mmHg: act on it and report it under the local critical-value policy.');
-    expect(renderer.flagMessage({ code: 'critical_value', severity: 'critical', values: { field: 'lactate', value: 6.2, limit: 4, direction: 'above' } }, mmHgFindings))
-      .toMatch(/lactate 6.2 mmol\/L is at or above the limit of 4 mmol\/L/);
+    expect(message('critical_value')).toBe(
+      'Critical value: PaO2 52 mmHg is below the limit of 60 mmHg: act on it and report it under the local critical-value policy.',
+    );
+    expect(
+      renderer.flagMessage(
+        {
+          code: 'critical_value',
+          severity: 'critical',
+          values: { field: 'lactate', value: 6.2, limit: 4, direction: 'above' },
+        },
+        mmHgFindings,
+      ),
+    ).toMatch(/lactate 6.2 mmol\/L is at or above the limit of 4 mmol\/L/);
   });
 
   it('the unit question quotes the entry as typed', () => {
     const f = read(C.withheld);
     const flag = f.flags.find((x) => x.code === 'unit_ambiguous');
     expect(flag).toBeDefined();
-    expect(renderer.flagMessage(flag as Flag, f)).toMatch(/PaCO2 entered as 5.3 mmHg with a pH of 7.40 fits a value in kPa: confirm whether the pressures are in mmHg or kPa/);
+    expect(renderer.flagMessage(flag as Flag, f)).toMatch(
+      /PaCO2 entered as 5.3 mmHg with a pH of 7.40 fits a value in kPa: confirm whether the pressures are in mmHg or kPa/,
+    );
   });
 
   it('every flag the invented cases raise gets a clean sentence', () => {

@@ -15,19 +15,33 @@ const definition = (value: number, decimals: number): string => {
 
 describe('numberText', () => {
   it('equals toFixed without trailing zeros, for any value the note could show', () => {
-    fc.assert(fc.property(fc.double({ min: -100_000, max: 100_000, noNaN: true }), fc.integer({ min: 0, max: 3 }), (value, decimals) => {
-      expect(numberText(value, decimals)).toBe(definition(value, decimals));
-    }), { numRuns: 20_000 });
+    fc.assert(
+      fc.property(
+        fc.double({ min: -100_000, max: 100_000, noNaN: true }),
+        fc.integer({ min: 0, max: 3 }),
+        (value, decimals) => {
+          expect(numberText(value, decimals)).toBe(definition(value, decimals));
+        },
+      ),
+      { numRuns: 20_000 },
+    );
   });
 
   it.each([
-    [7.3, 2, false, '7.3'], [7.3, 2, true, '7.30'], [-0.04, 1, false, '0'], [23.456, 1, false, '23.5'], [0.0004, 3, false, '0'],
-    [180, 0, false, '180'], [1e-7, 2, false, '0'], [12.0, 1, false, '12'],
+    [7.3, 2, false, '7.3'],
+    [7.3, 2, true, '7.30'],
+    [-0.04, 1, false, '0'],
+    [23.456, 1, false, '23.5'],
+    [0.0004, 3, false, '0'],
+    [180, 0, false, '180'],
+    [1e-7, 2, false, '0'],
+    [12.0, 1, false, '12'],
   ])('%d to %d places (fixed %s) is %s', (value, decimals, fixed, expected) => {
     expect(numberText(value, decimals, fixed)).toBe(expected);
   });
 
   it('nothing for a value that is not a finite number', () => {
-    for (const value of [null, undefined, Number.NaN, Number.POSITIVE_INFINITY]) expect(numberText(value, 1)).toBeNull();
+    for (const value of [null, undefined, Number.NaN, Number.POSITIVE_INFINITY])
+      expect(numberText(value, 1)).toBeNull();
   });
 });

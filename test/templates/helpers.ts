@@ -41,7 +41,8 @@ export function emptyHeadings(text: string, markdown: boolean): string[] {
 }
 
 /** Bullets with no text, or text that is only punctuation. */
-export const danglingBullets = (text: string): string[] => text.split('\n').filter((l) => /^\s*[-*]\s*[.,;:]*\s*$/.test(l));
+export const danglingBullets = (text: string): string[] =>
+  text.split('\n').filter((l) => /^\s*[-*]\s*[.,;:]*\s*$/.test(l));
 
 // Units the note prints (UCUM-style labels as clinicians write them).
 const UNIT = String.raw`(?:mmHg|kPa|mmol/L|nmol/L|mOsm/kg|g/dL|g/L|mg/dL|µmol/L|mL/kg PBW|mL/min|mL/dL|mL|L/min|cmH2O|kg|cm|%|/min|min|years|°C|m)(?![A-Za-z])`;
@@ -54,10 +55,14 @@ const NUMBER = String.raw`-?\d+(?:\.\d+)?`;
 export function unitlessNumbers(text: string): string[] {
   const out: string[] = [];
   // sentences about a dimensionless ratio are left out whole
-  const sentences = text.split(/(?<=\.)\s+|\n/).filter((s) => !/delta ratio|SpO2\/FiO2|ventilatory ratio|VD\/VT/i.test(s));
+  const sentences = text
+    .split(/(?<=\.)\s+|\n/)
+    .filter((s) => !/delta ratio|SpO2\/FiO2|ventilatory ratio|VD\/VT/i.test(s));
   const token = new RegExp(String.raw`(?<![\w.\-/])(${NUMBER}(?:-${NUMBER})?)(?![\w.]*\d)`, 'g');
   for (const s of sentences) {
-    const clean = s.replace(/\d{4}-\d{2}-\d{2}( \d{2}:\d{2})?/g, ' ').replace(/\b\d{1,2}:\d{2}\b/g, ' ');
+    const clean = s
+      .replace(/\d{4}-\d{2}-\d{2}( \d{2}:\d{2})?/g, ' ')
+      .replace(/\b\d{1,2}:\d{2}\b/g, ' ');
     for (const m of clean.matchAll(token)) {
       const before = clean.slice(0, m.index).trimEnd();
       const after = clean.slice((m.index ?? 0) + m[0].length);
@@ -67,7 +72,8 @@ export function unitlessNumbers(text: string): string[] {
       // "61 to 48 mmHg", "4-6 mmHg": the first number of a range shares the unit of the second
       if (new RegExp(String.raw`^ to ${NUMBER} ?${UNIT}`).test(after)) continue;
       // a pH range or a pH limit: "pH 7.22 to 7.31", "pH 7.10 (below 7.20)"
-      if (/pH( of)? \d\.\d\d( is)? (to|\(?(below|above|at or above)( the limit of)?)$/.test(before)) continue;
+      if (/pH( of)? \d\.\d\d( is)? (to|\(?(below|above|at or above)( the limit of)?)$/.test(before))
+        continue;
       // the signed change after a pH pair: "pH 7.22 to 7.31 (+0.09)"
       if (/pH \d\.\d\d to \d\.\d\d \([+-]$/.test(before)) continue;
       out.push(`${m[0]} in "${s.trim()}"`);
@@ -80,7 +86,11 @@ export function unitlessNumbers(text: string): string[] {
 export function noteProblems(note: Note): string[] {
   const md = note.format === 'markdown';
   const problems: string[] = [];
-  for (const [part, text] of [['line', note.line], ['text', note.text], ['handover', note.handover]] as const) {
+  for (const [part, text] of [
+    ['line', note.line],
+    ['text', note.text],
+    ['handover', note.handover],
+  ] as const) {
     if (!text.trim()) problems.push(`${part} is empty`);
     const leak = text.match(LEAKS);
     if (leak) problems.push(`${part} prints "${leak[0]}"`);
@@ -91,7 +101,8 @@ export function noteProblems(note: Note): string[] {
     for (const n of unitlessNumbers(text)) problems.push(`${part}: number without a unit: ${n}`);
   }
   if (note.line.includes('\n')) problems.push('line spans more than one line');
-  for (const phrase of CAUTION_PHRASES) if (!phrase.test(note.text)) problems.push(`text lacks the caution ${phrase}`);
+  for (const phrase of CAUTION_PHRASES)
+    if (!phrase.test(note.text)) problems.push(`text lacks the caution ${phrase}`);
   if (!/decision support/i.test(note.handover)) problems.push('handover lacks its caution line');
   return problems;
 }

@@ -7,7 +7,8 @@ import { kpaText, read, ucum } from './cases.ts';
 import { CAUTION_PHRASES, noteProblems } from './helpers.ts';
 
 const renderer = createNoteRenderer();
-const note = (c: unknown, format: 'text' | 'markdown' = 'text'): Note => renderer.render(read(c), { format });
+const note = (c: unknown, format: 'text' | 'markdown' = 'text'): Note =>
+  renderer.render(read(c), { format });
 const section = (text: string, heading: string): string => {
   // the body of one plain-text section, up to the next upper-case heading
   const start = text.indexOf(`\n${heading}\n`);
@@ -33,7 +34,8 @@ describe('every case, plain text and Markdown', () => {
 
   it('Markdown has section headings; plain text has none of its marks', () => {
     for (const c of Object.values(C.ALL_CASES)) {
-      const md = note(c, 'markdown'), text = note(c, 'text');
+      const md = note(c, 'markdown'),
+        text = note(c, 'text');
       expect(md.text).toMatch(/^## Cautions$/m);
       expect(md.handover).toMatch(/^### /m);
       expect(text.text).toMatch(/^CAUTIONS$/m);
@@ -50,7 +52,12 @@ describe('every case, plain text and Markdown', () => {
 
 describe('the checks themselves can fail', () => {
   it('catch a leaked value, an empty heading, a dangling bullet, a bare number and a missing caution', () => {
-    const bad: Note = { format: 'text', line: 'ABG pH 7.31, PaCO2 48: undefined', text: 'INTERPRETATION\n\nOXYGENATION\n- \nA-a gradient 153.', handover: 'Result:' };
+    const bad: Note = {
+      format: 'text',
+      line: 'ABG pH 7.31, PaCO2 48: undefined',
+      text: 'INTERPRETATION\n\nOXYGENATION\n- \nA-a gradient 153.',
+      handover: 'Result:',
+    };
     const problems = noteProblems(bad).join('\n');
     expect(problems).toMatch(/prints "undefined"/);
     expect(problems).toMatch(/empty heading "INTERPRETATION"/);
@@ -67,13 +74,17 @@ describe('ventilated patient, mmHg (case 1)', () => {
 
   it('one line: gas, primary process, compensation, corrected AG, P/F with PEEP', () => {
     // AG = 138 - (104 + 23.5) = 10.5; + 2.5 x (4.0 - 3.1) = 12.75 (Figge 1998); P/F = 72 / 0.4 = 180 (Berlin 2012)
-    expect(n.line).toBe('ABG pH 7.31, PaCO2 48 mmHg, HCO3 23.5 mmol/L: acute respiratory acidosis, compensation as expected; AG 12.8 mmol/L (albumin-corrected); P/F 180 mmHg on PEEP 8 cmH2O.');
+    expect(n.line).toBe(
+      'ABG pH 7.31, PaCO2 48 mmHg, HCO3 23.5 mmol/L: acute respiratory acidosis, compensation as expected; AG 12.8 mmol/L (albumin-corrected); P/F 180 mmHg on PEEP 8 cmH2O.',
+    );
   });
 
   it('interpretation: expected HCO3 band for an acute rise, [H+], trend since the last gas', () => {
     const text = section(n.text, 'INTERPRETATION');
     // acute rule: 24 + 1 x (48 - 40) / 10 = 24.8 +/- 2 (Berend 2014)
-    expect(text).toContain(`${round(24 + (48 - 40) / 10 - 2, 1)}-${round(24 + (48 - 40) / 10 + 2, 1)} mmol/L`);
+    expect(text).toContain(
+      `${round(24 + (48 - 40) / 10 - 2, 1)}-${round(24 + (48 - 40) / 10 + 2, 1)} mmol/L`,
+    );
     expect(text).toContain(`[H+] ${round(hPlus(g.ph))} nmol/L`);
     expect(text).toContain('PaCO2 61 to 48 mmHg');
     expect(text).toMatch(/Primary process: acute respiratory acidosis/);
@@ -117,7 +128,9 @@ describe('ventilated patient, mmHg (case 1)', () => {
     // every safety flag of the case is in the section
     expect(text).toMatch(/VT 450 mL is 8.3 mL\/kg PBW, which is above 8 mL\/kg PBW/);
     expect(text).toMatch(/Driving pressure 16 cmH2O is above 15 cmH2O/);
-    expect(text).toMatch(/The VT that would reach the target \(490 mL, 9.0 mL\/kg PBW\) is above 8 mL\/kg PBW/);
+    expect(text).toMatch(
+      /The VT that would reach the target \(490 mL, 9.0 mL\/kg PBW\) is above 8 mL\/kg PBW/,
+    );
   });
 
   it('plan offers only the lung-protective route, and the recheck time', () => {
@@ -152,7 +165,8 @@ describe('the same patient in kPa and SI units (case 1b)', () => {
   });
 
   it('derived pressures are converted, with 1 decimal (UCUM mm[Hg] to kPa)', () => {
-    const pco2 = 6.4 * 7.50062, po2 = 9.6 * 7.50062;
+    const pco2 = 6.4 * 7.50062,
+      po2 = 9.6 * 7.50062;
     const pao2 = 0.4 * (760 - 47) - pco2 / 0.8;
     expect(n.text).toContain(`PAO2 ${kpaText(pao2)}`);
     expect(n.text).toContain(`A-a gradient ${kpaText(pao2 - po2)}`);
@@ -161,7 +175,9 @@ describe('the same patient in kPa and SI units (case 1b)', () => {
     // Berlin bands 100/200/300 mmHg in kPa
     expect(n.text).toContain(`over ${kpaText(100)}, up to ${kpaText(200)}`);
     const ht = hPlus(7.35);
-    expect(n.text).toContain(`Target PaCO2 ${kpaText((ht * (23.5 - 0.1 * pco2)) / (24 - 0.1 * ht))}`);
+    expect(n.text).toContain(
+      `Target PaCO2 ${kpaText((ht * (23.5 - 0.1 * pco2)) / (24 - 0.1 * ht))}`,
+    );
     // the acute rule per 10 mmHg, in kPa
     expect(n.text).toContain(`per ${kpaText(10)}`);
     // acute buffering per kPa: 0.1 x 7.50062 = 0.75 mmol/L per kPa
@@ -171,9 +187,14 @@ describe('the same patient in kPa and SI units (case 1b)', () => {
 
   it('reads the same as the mmHg note apart from the units', () => {
     const mmHg = note(C.ventilatedMmHg);
-    const words = (t: string) => t.replace(/-?\d+(\.\d+)?/g, '#').replace(/\b(mmHg|kPa|g\/dL|g\/L|mg\/dL|mmol\/L|BUN|urea)\b/g, 'U');
+    const words = (t: string) =>
+      t
+        .replace(/-?\d+(\.\d+)?/g, '#')
+        .replace(/\b(mmHg|kPa|g\/dL|g\/L|mg\/dL|mmol\/L|BUN|urea)\b/g, 'U');
     expect(words(n.line)).toBe(words(mmHg.line));
-    expect(n.text.split('\n').filter((l) => /^[A-Z ()]+$/.test(l))).toEqual(mmHg.text.split('\n').filter((l) => /^[A-Z ()]+$/.test(l)));
+    expect(n.text.split('\n').filter((l) => /^[A-Z ()]+$/.test(l))).toEqual(
+      mmHg.text.split('\n').filter((l) => /^[A-Z ()]+$/.test(l)),
+    );
   });
 });
 
@@ -182,7 +203,9 @@ describe('each disorder', () => {
     const n = note(C.ketoacidosis);
     // Winters: 1.5 x 6.5 + 8 = 17.75 +/- 2 (Albert, Dell, Winters 1967)
     const w = 1.5 * 6.5 + 8;
-    expect(n.text).toContain(`Expected PaCO2 by Winters' formula is ${round(w - 2)}-${round(w + 2)} mmHg`);
+    expect(n.text).toContain(
+      `Expected PaCO2 by Winters' formula is ${round(w - 2)}-${round(w + 2)} mmHg`,
+    );
     expect(n.line).toMatch(/raised-AG metabolic acidosis, compensation as expected/);
     // AG = 134 - (98 + 6.5) = 29.5 (Kraut and Madias 2007)
     expect(n.text).toContain('Anion gap 29.5 mmol/L');
@@ -199,20 +222,28 @@ describe('each disorder', () => {
 
   it('septic shock: added respiratory acidosis with its reason, and a target above the compensation', () => {
     const n = note(C.septicMixed);
-    expect(n.text).toMatch(/Added respiratory acidosis: the PaCO2 is higher than compensation explains/);
+    expect(n.text).toMatch(
+      /Added respiratory acidosis: the PaCO2 is higher than compensation explains/,
+    );
     const w = 1.5 * 13.5 + 8; // Winters
     const band = `${round(w - 2)}-${round(w + 2)} mmHg`;
-    expect(section(n.text, 'VENTILATION')).toContain(`above the ${band} that Winters' formula expects`);
+    expect(section(n.text, 'VENTILATION')).toContain(
+      `above the ${band} that Winters' formula expects`,
+    );
     expect(section(n.text, 'PLAN (SUGGESTIONS)')).toContain(`(${band} by Winters' formula)`);
     expect(section(n.text, 'CAUTIONS')).toMatch(/lactate 6.2 mmol\/L \(at or above 4 mmol\/L\)/);
   });
 
   it('triple disorder: primary first, then each added process with its reason', () => {
     const n = note(C.triple);
-    expect(n.line).toMatch(/acute respiratory alkalosis with raised-AG metabolic acidosis and metabolic alkalosis/);
+    expect(n.line).toMatch(
+      /acute respiratory alkalosis with raised-AG metabolic acidosis and metabolic alkalosis/,
+    );
     // delta ratio (26.5 - 12) / (24 - 21.5) = 5.8, above 2 (Wrenn 1990)
     expect(n.text).toContain(`delta ratio of ${round(14.5 / 2.5, 1)} (above 2)`);
-    expect(n.text).toMatch(/Added raised-AG metabolic acidosis: the anion gap of 26.5 mmol\/L is above 16 mmol\/L/);
+    expect(n.text).toMatch(
+      /Added raised-AG metabolic acidosis: the anion gap of 26.5 mmol\/L is above 16 mmol\/L/,
+    );
     const plan = section(n.text, 'PLAN (SUGGESTIONS)');
     expect(plan).toMatch(/urine chloride/);
     expect(plan).toMatch(/ketones/);
@@ -228,7 +259,9 @@ describe('each disorder', () => {
 
   it('normal-AG acidosis without urine electrolytes: the plan asks for the urine anion gap', () => {
     const n = note(C.venousLow);
-    expect(section(n.text, 'PLAN (SUGGESTIONS)')).toMatch(/urine Na, K and Cl for the urine anion gap/);
+    expect(section(n.text, 'PLAN (SUGGESTIONS)')).toMatch(
+      /urine Na, K and Cl for the urine anion gap/,
+    );
   });
 
   it('vomiting: metabolic alkalosis, its expected PaCO2, chloride-responsive, critical K', () => {
@@ -236,12 +269,16 @@ describe('each disorder', () => {
     // expected PaCO2 = 0.7 x 38 + 21 = 47.6 +/- 2 (Berend 2014)
     const e = 0.7 * 38 + 21;
     expect(n.text).toContain(`${round(e - 2)}-${round(e + 2)} mmHg`);
-    expect(n.text).toMatch(/Urine chloride 12 mmol\/L: below 20 mmol\/L, a chloride-responsive alkalosis/);
+    expect(n.text).toMatch(
+      /Urine chloride 12 mmol\/L: below 20 mmol\/L, a chloride-responsive alkalosis/,
+    );
     expect(section(n.text, 'CAUTIONS')).toMatch(/K 2.6 mmol\/L \(below 2.8 mmol\/L\)/);
   });
 
   it('metabolic alkalosis without urine chloride: the plan asks for it', () => {
-    expect(section(note(C.inconsistent).text, 'PLAN (SUGGESTIONS)')).toMatch(/urine chloride \(below 20 mmol\/L/);
+    expect(section(note(C.inconsistent).text, 'PLAN (SUGGESTIONS)')).toMatch(
+      /urine chloride \(below 20 mmol\/L/,
+    );
   });
 
   it('COPD on the ventilator: acute-on-chronic from the usual values; target below the baseline', () => {
@@ -272,9 +309,13 @@ describe('each disorder', () => {
     expect(n.text).toMatch(/severe band/);
     expect(n.text).toContain(`SpO2/FiO2 ${round(92 / 0.8)}`);
     expect(n.text).toMatch(/meets the oxygenation criterion of the 2024 global ARDS definition/);
-    expect(section(n.text, 'VENTILATION')).toMatch(/The RR that would reach the target \(\d+\/min\) is above 35\/min/);
+    expect(section(n.text, 'VENTILATION')).toMatch(
+      /The RR that would reach the target \(\d+\/min\) is above 35\/min/,
+    );
     expect(section(n.text, 'VENTILATION')).toMatch(/Plateau pressure 32 cmH2O is above 30 cmH2O/);
-    expect(section(n.text, 'PLAN (SUGGESTIONS)')).toMatch(/no setting reaches .* within lung-protective limits/);
+    expect(section(n.text, 'PLAN (SUGGESTIONS)')).toMatch(
+      /no setting reaches .* within lung-protective limits/,
+    );
   });
 
   it('toxic alcohol: raised osmolar gap named with its work-up', () => {
@@ -282,7 +323,9 @@ describe('each disorder', () => {
     // calculated osmolality 2 x 140 + 5.0 + 5.0 = 290; gap 330 - 290 = 40 (Purssell 2001)
     expect(n.text).toContain(`Osmolar gap ${330 - (2 * 140 + 5 + 5)} mOsm/kg`);
     expect(n.text).toMatch(/raised, above 10 mOsm\/kg/);
-    expect(section(n.text, 'PLAN (SUGGESTIONS)')).toMatch(/toxic alcohols \(methanol, ethylene glycol\)/);
+    expect(section(n.text, 'PLAN (SUGGESTIONS)')).toMatch(
+      /toxic alcohols \(methanol, ethylene glycol\)/,
+    );
   });
 });
 
@@ -299,7 +342,9 @@ describe('venous and capillary samples', () => {
     expect(text).toMatch(/HCO3 about 1 mmol\/L higher/);
     expect(text).toMatch(/PCO2 about 4-6 mmHg higher/);
     expect(text).toMatch(/±20 mmHg/);
-    expect(text).toMatch(/below 45 mmHg makes arterial hypercapnia unlikely; here it is 42 mmHg, so arterial hypercapnia is unlikely/);
+    expect(text).toMatch(
+      /below 45 mmHg makes arterial hypercapnia unlikely; here it is 42 mmHg, so arterial hypercapnia is unlikely/,
+    );
     expect(n.text).toMatch(/PvCO2 42 mmHg/);
   });
 
@@ -328,8 +373,12 @@ describe('special readings', () => {
     const n = note(C.inconsistent);
     // HCO3 = 24 x 40 / 10^(9 - 7.35) = 21.5 (Henderson)
     const calculated = (24 * 40) / hPlus(7.35);
-    expect(section(n.text, 'INTERPRETATION')).toContain(`does not match the HCO3 of ${round(calculated, 1)} mmol/L calculated from pH and PCO2`);
-    expect(section(n.text, 'PLAN (SUGGESTIONS)').trim().split('\n')[0]).toMatch(/resolve the mismatch/);
+    expect(section(n.text, 'INTERPRETATION')).toContain(
+      `does not match the HCO3 of ${round(calculated, 1)} mmol/L calculated from pH and PCO2`,
+    );
+    expect(section(n.text, 'PLAN (SUGGESTIONS)').trim().split('\n')[0]).toMatch(
+      /resolve the mismatch/,
+    );
   });
 
   it('minimal gas: HCO3 marked as calculated, no empty sections, no ventilation section', () => {
@@ -341,7 +390,9 @@ describe('special readings', () => {
   });
 
   it('under 16: the adult-rules warning', () => {
-    expect(note(C.adolescent).text).toMatch(/Age 14 years: these rules are for adults aged 16 years and over/);
+    expect(note(C.adolescent).text).toMatch(
+      /Age 14 years: these rules are for adults aged 16 years and over/,
+    );
   });
 });
 
@@ -353,7 +404,9 @@ describe('missing or doubtful inputs', () => {
   });
 
   it('estimated baseline: marked as estimated', () => {
-    expect(note(C.estimatedBaseline).text).toMatch(/usual PaCO2 \d+ mmHg \(estimated\) and HCO3 [\d.]+ mmol\/L \(estimated\)/);
+    expect(note(C.estimatedBaseline).text).toMatch(
+      /usual PaCO2 \d+ mmHg \(estimated\) and HCO3 [\d.]+ mmol\/L \(estimated\)/,
+    );
   });
 
   it('cold, at altitude, PaO2 above PAO2: temperature check, PB from altitude, impossible gradient, S/F not usable', () => {
@@ -394,7 +447,9 @@ describe('withheld: pressure unit in doubt', () => {
   const md = note(C.withheld, 'markdown');
 
   it('says plainly that interpretation is withheld until mmHg or kPa is confirmed', () => {
-    expect(n.line).toMatch(/PaCO2 5.3 mmHg \(unit in doubt\): interpretation withheld until mmHg or kPa is confirmed/);
+    expect(n.line).toMatch(
+      /PaCO2 5.3 mmHg \(unit in doubt\): interpretation withheld until mmHg or kPa is confirmed/,
+    );
     expect(n.text).toMatch(/^INTERPRETATION WITHHELD$/m);
     expect(n.text).toMatch(/fits a value in kPa/);
     expect(md.text).toMatch(/^## Interpretation withheld$/m);
@@ -402,7 +457,9 @@ describe('withheld: pressure unit in doubt', () => {
 
   it('shows only what does not depend on the pressure unit', () => {
     for (const text of [n.text, n.handover]) {
-      expect(text).not.toMatch(/Primary process|Expected|P\/F|PAO2|A-a|Target|PBW|compensation as expected/);
+      expect(text).not.toMatch(
+        /Primary process|Expected|P\/F|PAO2|A-a|Target|PBW|compensation as expected/,
+      );
       expect(text).not.toContain('12.1'); // the PaO2, in the same doubtful unit
     }
     expect(n.text).toContain('Shown as entered, not interpreted: pH 7.40');
@@ -417,8 +474,14 @@ describe('withheld: pressure unit in doubt', () => {
 
 describe('free text from the request', () => {
   it('a previous gas label stays on one line and is inert in Markdown', () => {
-    const c = { ...C.ventilatedMmHg, previous: [{ label: 'after *bicarb*\n## not a heading', gas: { ph: 7.22, pco2: 61, hco3: 24.3 } }] };
-    const md = note(c, 'markdown'), text = note(c, 'text');
+    const c = {
+      ...C.ventilatedMmHg,
+      previous: [
+        { label: 'after *bicarb*\n## not a heading', gas: { ph: 7.22, pco2: 61, hco3: 24.3 } },
+      ],
+    };
+    const md = note(c, 'markdown'),
+      text = note(c, 'text');
     expect(md.text).toContain('Since the previous gas (after \\*bicarb\\* \\#\\# not a heading)');
     expect(md.text).not.toMatch(/^## not a heading/m);
     expect(text.text).toContain('Since the previous gas (after *bicarb* ## not a heading)');
@@ -428,6 +491,8 @@ describe('free text from the request', () => {
 describe('the renderer refuses what it cannot render', () => {
   it('a rejected case, or an unknown format, is a clear error', () => {
     expect(() => renderer.render({ ok: false, errors: [] } as never)).toThrow(/accepted case/);
-    expect(() => renderer.render(read(C.minimal), { format: 'html' as never })).toThrow(/Unknown note format/);
+    expect(() => renderer.render(read(C.minimal), { format: 'html' as never })).toThrow(
+      /Unknown note format/,
+    );
   });
 });

@@ -7,10 +7,24 @@ import { existsSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import { describe, expect, it } from 'vitest';
 import { interpret, type Findings } from '../../calc/index.ts';
-import { metabolicAlkalosisPco2, respiratoryAcidosisHco3, respiratoryAlkalosisHco3, wintersPco2 } from '../../calc/compensation.ts';
 import {
-  acidBaseMap, bandPolygon, bandsContaining, BANDS, fromPoint, isoplethPoints, ISOPLETHS_MMHG, MAP_WINDOW,
-  type BandCode, type Frame, type PhHco3,
+  metabolicAlkalosisPco2,
+  respiratoryAcidosisHco3,
+  respiratoryAlkalosisHco3,
+  wintersPco2,
+} from '../../calc/compensation.ts';
+import {
+  acidBaseMap,
+  bandPolygon,
+  bandsContaining,
+  BANDS,
+  fromPoint,
+  isoplethPoints,
+  ISOPLETHS_MMHG,
+  MAP_WINDOW,
+  type BandCode,
+  type Frame,
+  type PhHco3,
 } from '../../views/map.ts';
 
 // ---------- invented cases ----------
@@ -50,8 +64,10 @@ const hostile = '<script>alert(1)</script>';
 // ---------- reading our own SVG ----------
 
 type Attrs = Record<string, string>;
-const attrsOf = (tag: string): Attrs => Object.fromEntries([...tag.matchAll(/([\w:-]+)="([^"]*)"/g)].map((m) => [m[1], m[2]]));
-const tags = (svg: string, name: string): Attrs[] => [...svg.matchAll(new RegExp(`<${name}\\b[^>]*>`, 'g'))].map((m) => attrsOf(m[0]));
+const attrsOf = (tag: string): Attrs =>
+  Object.fromEntries([...tag.matchAll(/([\w:-]+)="([^"]*)"/g)].map((m) => [m[1], m[2]]));
+const tags = (svg: string, name: string): Attrs[] =>
+  [...svg.matchAll(new RegExp(`<${name}\\b[^>]*>`, 'g'))].map((m) => attrsOf(m[0]));
 const byId = (svg: string, name: string, id: string): Attrs => {
   const found = tags(svg, name).find((a) => a.id === id);
   if (!found) throw new Error(`no <${name} id="${id}">`);
@@ -63,8 +79,17 @@ const frameOf = (svg: string, prefix = 'gasline-map'): Frame => {
   return { left: num(r, 'x'), top: num(r, 'y'), width: num(r, 'width'), height: num(r, 'height') };
 };
 const pointsOf = (a: Attrs): { x: number; y: number }[] =>
-  (a.points ?? '').trim().split(/\s+/).map((p) => { const [x, y] = p.split(',').map(Number); return { x: x as number, y: y as number }; });
-const markerAt = (svg: string, id: string) => { const c = byId(svg, 'circle', id); return { x: num(c, 'cx'), y: num(c, 'cy') }; };
+  (a.points ?? '')
+    .trim()
+    .split(/\s+/)
+    .map((p) => {
+      const [x, y] = p.split(',').map(Number);
+      return { x: x as number, y: y as number };
+    });
+const markerAt = (svg: string, id: string) => {
+  const c = byId(svg, 'circle', id);
+  return { x: num(c, 'cx'), y: num(c, 'cy') };
+};
 
 // Henderson equation, written out (textbook; clinical-scope section 2).
 const hPlus = (ph: number) => 10 ** (9 - ph);
@@ -76,8 +101,13 @@ const phFrom = (pco2: number, hco3: number) => 9 - Math.log10((24 * pco2) / hco3
 function inside(poly: PhHco3[], p: PhHco3): boolean {
   let hit = false;
   for (let i = 0, j = poly.length - 1; i < poly.length; j = i++) {
-    const a = poly[i] as PhHco3, b = poly[j] as PhHco3;
-    if ((a.hco3 > p.hco3) !== (b.hco3 > p.hco3) && p.ph < ((b.ph - a.ph) * (p.hco3 - a.hco3)) / (b.hco3 - a.hco3) + a.ph) hit = !hit;
+    const a = poly[i] as PhHco3,
+      b = poly[j] as PhHco3;
+    if (
+      a.hco3 > p.hco3 !== b.hco3 > p.hco3 &&
+      p.ph < ((b.ph - a.ph) * (p.hco3 - a.hco3)) / (b.hco3 - a.hco3) + a.ph
+    )
+      hit = !hit;
   }
   return hit;
 }
@@ -107,7 +137,10 @@ describe('placement', () => {
   it('puts the [H+] scale where 10^(9 - pH) says: 40 nmol/L over pH 7.40, 100 over pH 7.00', () => {
     const tick = (h: number) => tags(svg, 'text').find((t) => t['data-hplus'] === String(h));
     // [H+] 40 nmol/L <-> pH 7.398; 100 <-> 7.00 (definition of pH; clinical-scope section 2)
-    expect(fromPoint(frame, { x: num(tick(40) as Attrs, 'x'), y: 0 }).ph).toBeCloseTo(9 - Math.log10(40), 3);
+    expect(fromPoint(frame, { x: num(tick(40) as Attrs, 'x'), y: 0 }).ph).toBeCloseTo(
+      9 - Math.log10(40),
+      3,
+    );
     expect(fromPoint(frame, { x: num(tick(100) as Attrs, 'x'), y: 0 }).ph).toBeCloseTo(7.0, 3);
   });
 });
@@ -157,15 +190,24 @@ describe('compensation bands', () => {
   const frame = frameOf(svg);
 
   it('draws six closed bands and every vertex lies on the low or high edge of its calc rule', () => {
-    const rule = (code: BandCode, p: PhHco3): { on: number; band: { low: number; high: number } } => {
+    const rule = (
+      code: BandCode,
+      p: PhHco3,
+    ): { on: number; band: { low: number; high: number } } => {
       const pco2 = pco2From(p.ph, p.hco3);
       switch (code) {
-        case 'metabolic_acidosis': return { on: pco2, band: wintersPco2(p.hco3) };
-        case 'metabolic_alkalosis': return { on: pco2, band: metabolicAlkalosisPco2(p.hco3) };
-        case 'acute_respiratory_acidosis': return { on: p.hco3, band: respiratoryAcidosisHco3(pco2, 'acute') };
-        case 'chronic_respiratory_acidosis': return { on: p.hco3, band: respiratoryAcidosisHco3(pco2, 'chronic') };
-        case 'acute_respiratory_alkalosis': return { on: p.hco3, band: respiratoryAlkalosisHco3(pco2, 'acute') };
-        case 'chronic_respiratory_alkalosis': return { on: p.hco3, band: respiratoryAlkalosisHco3(pco2, 'chronic') };
+        case 'metabolic_acidosis':
+          return { on: pco2, band: wintersPco2(p.hco3) };
+        case 'metabolic_alkalosis':
+          return { on: pco2, band: metabolicAlkalosisPco2(p.hco3) };
+        case 'acute_respiratory_acidosis':
+          return { on: p.hco3, band: respiratoryAcidosisHco3(pco2, 'acute') };
+        case 'chronic_respiratory_acidosis':
+          return { on: p.hco3, band: respiratoryAcidosisHco3(pco2, 'chronic') };
+        case 'acute_respiratory_alkalosis':
+          return { on: p.hco3, band: respiratoryAlkalosisHco3(pco2, 'acute') };
+        case 'chronic_respiratory_alkalosis':
+          return { on: p.hco3, band: respiratoryAlkalosisHco3(pco2, 'chronic') };
       }
     };
     expect(tags(svg, 'polygon').filter((t) => t['data-band']).length).toBe(6);
@@ -173,16 +215,22 @@ describe('compensation bands', () => {
       const poly = polygonOf(svg, b.code, frame);
       expect(poly.length).toBeGreaterThan(20);
       const [from, to] = b.domain(f.reference);
-      let onLow = 0, onHigh = 0, onEnd = 0;
+      let onLow = 0,
+        onHigh = 0,
+        onEnd = 0;
       for (const p of poly) {
         const { on, band } = rule(b.code, p);
-        const dLow = Math.abs(on - band.low), dHigh = Math.abs(on - band.high);
+        const dLow = Math.abs(on - band.low),
+          dHigh = Math.abs(on - band.high);
         if (dLow < 0.1) onLow++;
         else if (dHigh < 0.1) onHigh++;
         else {
           // otherwise it closes an end of the band: on the end's PaCO2 line (or HCO3), between the edges
           const along = b.along === 'hco3' ? p.hco3 : pco2From(p.ph, p.hco3);
-          expect(Math.min(Math.abs(along - from), Math.abs(along - to)), `${b.code} vertex pH ${p.ph}, HCO3 ${p.hco3}`).toBeLessThan(0.05);
+          expect(
+            Math.min(Math.abs(along - from), Math.abs(along - to)),
+            `${b.code} vertex pH ${p.ph}, HCO3 ${p.hco3}`,
+          ).toBeLessThan(0.05);
           expect(on).toBeGreaterThan(band.low);
           expect(on).toBeLessThan(band.high);
           onEnd++;
@@ -196,23 +244,97 @@ describe('compensation bands', () => {
 
   // Published check values, converted to (pH, HCO3) with the Henderson equation written out above.
   const at = (pco2: number, hco3: number): PhHco3 => ({ ph: phFrom(pco2, hco3), hco3 });
-  const cases: { band: BandCode; inside: [number, number][]; outside: [number, number][]; source: string }[] = [
+  const cases: {
+    band: BandCode;
+    inside: [number, number][];
+    outside: [number, number][];
+    source: string;
+  }[] = [
     // HCO3 12: expected PaCO2 1.5 x 12 + 8 = 26 (+/- 2)
-    { band: 'metabolic_acidosis', inside: [[26, 12], [24.5, 12], [27.5, 12]], outside: [[23, 12], [29, 12]], source: 'Winters (Albert 1967)' },
+    {
+      band: 'metabolic_acidosis',
+      inside: [
+        [26, 12],
+        [24.5, 12],
+        [27.5, 12],
+      ],
+      outside: [
+        [23, 12],
+        [29, 12],
+      ],
+      source: 'Winters (Albert 1967)',
+    },
     // HCO3 34: expected PaCO2 0.7 x 34 + 21 = 44.8 (+/- 2)
-    { band: 'metabolic_alkalosis', inside: [[44.8, 34], [43.5, 34]], outside: [[41.5, 34], [48, 34]], source: 'Berend 2014' },
+    {
+      band: 'metabolic_alkalosis',
+      inside: [
+        [44.8, 34],
+        [43.5, 34],
+      ],
+      outside: [
+        [41.5, 34],
+        [48, 34],
+      ],
+      source: 'Berend 2014',
+    },
     // PaCO2 60: acute HCO3 24 + 1 x 2 = 26; chronic 24 + 3.5 x 2 = 31 (+/- 2)
-    { band: 'acute_respiratory_acidosis', inside: [[60, 26], [60, 27.5]], outside: [[60, 31], [60, 23]], source: 'Berend 2014' },
-    { band: 'chronic_respiratory_acidosis', inside: [[60, 31], [60, 32.5]], outside: [[60, 26], [60, 34]], source: 'Berend 2014' },
+    {
+      band: 'acute_respiratory_acidosis',
+      inside: [
+        [60, 26],
+        [60, 27.5],
+      ],
+      outside: [
+        [60, 31],
+        [60, 23],
+      ],
+      source: 'Berend 2014',
+    },
+    {
+      band: 'chronic_respiratory_acidosis',
+      inside: [
+        [60, 31],
+        [60, 32.5],
+      ],
+      outside: [
+        [60, 26],
+        [60, 34],
+      ],
+      source: 'Berend 2014',
+    },
     // PaCO2 30: acute HCO3 24 - 2 = 22; chronic 24 - 4 to 5 = 19-20 (+/- 2)
-    { band: 'acute_respiratory_alkalosis', inside: [[30, 22], [30, 23.5]], outside: [[30, 19], [30, 25]], source: 'Berend 2014' },
-    { band: 'chronic_respiratory_alkalosis', inside: [[30, 19.5], [30, 17.5]], outside: [[30, 15.5], [30, 23]], source: 'Berend 2014' },
+    {
+      band: 'acute_respiratory_alkalosis',
+      inside: [
+        [30, 22],
+        [30, 23.5],
+      ],
+      outside: [
+        [30, 19],
+        [30, 25],
+      ],
+      source: 'Berend 2014',
+    },
+    {
+      band: 'chronic_respiratory_alkalosis',
+      inside: [
+        [30, 19.5],
+        [30, 17.5],
+      ],
+      outside: [
+        [30, 15.5],
+        [30, 23],
+      ],
+      source: 'Berend 2014',
+    },
   ];
   for (const c of cases) {
     it(`holds the published ${c.band.replace(/_/g, ' ')} values inside the drawn band and not beyond (${c.source})`, () => {
       const poly = polygonOf(svg, c.band, frame);
-      for (const [p, h] of c.inside) expect(inside(poly, at(p, h)), `PaCO2 ${p}, HCO3 ${h}`).toBe(true);
-      for (const [p, h] of c.outside) expect(inside(poly, at(p, h)), `PaCO2 ${p}, HCO3 ${h}`).toBe(false);
+      for (const [p, h] of c.inside)
+        expect(inside(poly, at(p, h)), `PaCO2 ${p}, HCO3 ${h}`).toBe(true);
+      for (const [p, h] of c.outside)
+        expect(inside(poly, at(p, h)), `PaCO2 ${p}, HCO3 ${h}`).toBe(false);
     });
   }
 
@@ -225,10 +347,17 @@ describe('compensation bands', () => {
         for (const b of BANDS) {
           const poly = bandPolygon(b.code, f.reference);
           // the drawn edge is straight between samples: leave out gases within a hair of it
-          const nearEdge = [0.004, -0.004].some((d) => inside(poly, { ph: ph + d, hco3 }) !== inside(poly, { ph, hco3 }))
-            || [0.1, -0.1].some((d) => inside(poly, { ph, hco3: hco3 + d }) !== inside(poly, { ph, hco3 }));
+          const nearEdge =
+            [0.004, -0.004].some(
+              (d) => inside(poly, { ph: ph + d, hco3 }) !== inside(poly, { ph, hco3 }),
+            ) ||
+            [0.1, -0.1].some(
+              (d) => inside(poly, { ph, hco3: hco3 + d }) !== inside(poly, { ph, hco3 }),
+            );
           if (nearEdge) continue;
-          expect(named.includes(b.code), `${b.code} at pH ${ph.toFixed(2)}, HCO3 ${hco3}`).toBe(inside(poly, { ph, hco3 }));
+          expect(named.includes(b.code), `${b.code} at pH ${ph.toFixed(2)}, HCO3 ${hco3}`).toBe(
+            inside(poly, { ph, hco3 }),
+          );
           compared++;
         }
       }
@@ -237,13 +366,19 @@ describe('compensation bands', () => {
   });
 
   it('starts the respiratory bands from a stated baseline (Berend 2014: rules apply from the usual values)', () => {
-    const baseline = findingsOf({ ...ketoacidosis, previous: [], context: { baseline: { pco2: 52, hco3: 30 } } });
+    const baseline = findingsOf({
+      ...ketoacidosis,
+      previous: [],
+      context: { baseline: { pco2: 52, hco3: 30 } },
+    });
     const poly = bandPolygon('chronic_respiratory_acidosis', baseline.reference);
     // first vertex: the usual PaCO2 52 with HCO3 30 - 2
     expect(pco2From(poly[0]?.ph as number, poly[0]?.hco3 as number)).toBeCloseTo(52, 6);
     expect(poly[0]?.hco3).toBeCloseTo(28, 6);
     // PaCO2 72, 20 above the usual 52: chronic HCO3 30 + 3.5 x 2 = 37
-    expect(bandsContaining({ ph: phFrom(72, 37), pco2: 72, hco3: 37 }, baseline.reference)).toContain('chronic_respiratory_acidosis');
+    expect(
+      bandsContaining({ ph: phFrom(72, 37), pco2: 72, hco3: 37 }, baseline.reference),
+    ).toContain('chronic_respiratory_acidosis');
     expect(acidBaseMap(baseline).text).toMatch(/usual values: PaCO2 52 mmHg, HCO3 30 mmol\/L/);
   });
 });
@@ -258,15 +393,26 @@ describe('the case over time', () => {
     expect(first.hco3).toBeCloseTo(7.5, 2);
     const second = fromPoint(frame, markerAt(svg, 'gasline-map-gas-2'));
     expect(second.ph).toBeCloseTo(7.12, 3);
-    const steps = tags(svg, 'line').filter((t) => t.class === 'gl-gas-step').map((t) => `${t['data-from']}>${t['data-to']}`);
+    const steps = tags(svg, 'line')
+      .filter((t) => t.class === 'gl-gas-step')
+      .map((t) => `${t['data-from']}>${t['data-to']}`);
     expect(steps).toEqual(['1>2', '2>3']);
-    for (const s of tags(svg, 'line').filter((t) => t.class === 'gl-gas-step')) expect(s['marker-end']).toBe('url(#gasline-map-arrow)');
-    expect(text.indexOf('Gas 1 of 3, on arrival, taken 2 Mar 2026 02:30')).toBeLessThan(text.indexOf('Gas 2 of 3, taken 2 Mar 2026 04:10'));
+    for (const s of tags(svg, 'line').filter((t) => t.class === 'gl-gas-step'))
+      expect(s['marker-end']).toBe('url(#gasline-map-arrow)');
+    expect(text.indexOf('Gas 1 of 3, on arrival, taken 2 Mar 2026 02:30')).toBeLessThan(
+      text.indexOf('Gas 2 of 3, taken 2 Mar 2026 04:10'),
+    );
     expect(text).toMatch(/oldest first, by time taken/);
   });
 
   it('keeps the order entered when an earlier gas has no date and time', () => {
-    const c = { ...ketoacidosis, previous: [ketoacidosis.previous[0], { label: 'after fluids', gas: { ph: 7.05, pco2: 28, hco3: 7.5 } }] };
+    const c = {
+      ...ketoacidosis,
+      previous: [
+        ketoacidosis.previous[0],
+        { label: 'after fluids', gas: { ph: 7.05, pco2: 28, hco3: 7.5 } },
+      ],
+    };
     const { svg, text } = acidBaseMap(findingsOf(c));
     const first = fromPoint(frameOf(svg), markerAt(svg, 'gasline-map-gas-1'));
     expect(first.ph).toBeCloseTo(7.12, 3);
@@ -275,7 +421,9 @@ describe('the case over time', () => {
 
   it('emphasises the current gas', () => {
     const { svg } = acidBaseMap(findingsOf(ketoacidosis));
-    expect(num(byId(svg, 'circle', 'gasline-map-gas-current'), 'r')).toBeGreaterThan(num(byId(svg, 'circle', 'gasline-map-gas-1'), 'r'));
+    expect(num(byId(svg, 'circle', 'gasline-map-gas-current'), 'r')).toBeGreaterThan(
+      num(byId(svg, 'circle', 'gasline-map-gas-1'), 'r'),
+    );
     expect(svg).toMatch(/<text class="gl-gas-label"[^>]*font-weight="700"[^>]*>3 now<\/text>/);
   });
 });
@@ -291,12 +439,18 @@ describe('gases outside the window', () => {
     const before = markerAt(svg, 'gasline-map-gas-1'); // HCO3 51 > 50
     expect(before.y).toBeCloseTo(frame.top, 1);
     expect(fromPoint(frame, before).ph).toBeCloseTo(7.55, 3);
-    expect(tags(svg, 'path').filter((t) => t.class === 'gl-off-scale').map((t) => t.id)).toEqual(['gasline-map-off-scale-1', 'gasline-map-off-scale-2']);
+    expect(
+      tags(svg, 'path')
+        .filter((t) => t.class === 'gl-off-scale')
+        .map((t) => t.id),
+    ).toEqual(['gasline-map-off-scale-1', 'gasline-map-off-scale-2']);
     expect(svg).toContain('2 now (off scale)');
   });
 
   it('says so in words', () => {
-    expect(text).toMatch(/Current gas \(2 of 2\): pH 7\.80[^\n]*outside the drawn window \(pH above 7\.70\), shown at its edge/);
+    expect(text).toMatch(
+      /Current gas \(2 of 2\): pH 7\.80[^\n]*outside the drawn window \(pH above 7\.70\), shown at its edge/,
+    );
     expect(text).toMatch(/Gas 1 of 2[^\n]*outside the drawn window \(HCO3 above 50 mmol\/L\)/);
   });
 
@@ -325,10 +479,18 @@ describe('units', () => {
     const f = findingsOf(hypercapniaKpa);
     const { svg, text } = acidBaseMap(f);
     // a general-purpose UCUM library from the registry (it ships no type declarations)
-    const ucum = createRequire(import.meta.url)('@lhncbc/ucum-lhc') as { UcumLhcUtils: { getInstance(): { convertUnitTo(from: string, v: number, to: string): { status: string; toVal: number } } } };
+    const ucum = createRequire(import.meta.url)('@lhncbc/ucum-lhc') as {
+      UcumLhcUtils: {
+        getInstance(): {
+          convertUnitTo(from: string, v: number, to: string): { status: string; toVal: number };
+        };
+      };
+    };
     const ucumUtils = ucum.UcumLhcUtils.getInstance();
     const labels = tags(svg, 'text').filter((t) => t.class === 'gl-isopleth-label');
-    const words = [...svg.matchAll(/<text class="gl-isopleth-label"[^>]*>([^<]*)<\/text>/g)].map((m) => m[1] as string);
+    const words = [...svg.matchAll(/<text class="gl-isopleth-label"[^>]*>([^<]*)<\/text>/g)].map(
+      (m) => m[1] as string,
+    );
     expect(labels.length).toBe(ISOPLETHS_MMHG.length);
     ISOPLETHS_MMHG.forEach((mmHg, i) => {
       // independent conversion: UCUM mm[Hg] -> kPa (133.322 Pa per mmHg)
@@ -348,7 +510,13 @@ describe('units', () => {
 describe('safety of the markup', () => {
   const c = {
     ...ketoacidosis,
-    previous: [{ takenAt: hostile, label: '"><img src=x onerror=alert(2)>', gas: { ph: 7.12, pco2: 25, hco3: 7.9 } }],
+    previous: [
+      {
+        takenAt: hostile,
+        label: '"><img src=x onerror=alert(2)>',
+        gas: { ph: 7.12, pco2: 25, hco3: 7.9 },
+      },
+    ],
   };
   const { svg, text } = acidBaseMap(findingsOf(c), { title: 'Map & <b>notes</b>' });
 
@@ -364,7 +532,11 @@ describe('safety of the markup', () => {
   });
 
   it('has no style attribute, no style or script element, no event handler', () => {
-    for (const s of [svg, acidBaseMap(findingsOf(offScale)).svg, acidBaseMap(findingsOf(hypercapniaKpa)).svg]) {
+    for (const s of [
+      svg,
+      acidBaseMap(findingsOf(offScale)).svg,
+      acidBaseMap(findingsOf(hypercapniaKpa)).svg,
+    ]) {
       expect(s).not.toMatch(/\sstyle\s*=/i);
       expect(s).not.toMatch(/<style/i);
       expect(s).not.toMatch(/<script/i);
@@ -374,7 +546,12 @@ describe('safety of the markup', () => {
   });
 
   it('drops characters XML cannot carry', () => {
-    const odd = acidBaseMap(findingsOf({ ...ketoacidosis, previous: [{ takenAt: 'night\u0001shift', gas: { ph: 7.12, pco2: 25, hco3: 7.9 } }] }));
+    const odd = acidBaseMap(
+      findingsOf({
+        ...ketoacidosis,
+        previous: [{ takenAt: 'night\u0001shift', gas: { ph: 7.12, pco2: 25, hco3: 7.9 } }],
+      }),
+    );
     expect(odd.svg).not.toContain('\u0001');
   });
 });
@@ -392,9 +569,13 @@ describe('accessibility and determinism', () => {
   });
 
   it('names each gas, its values and its band in the text alternative, with the cautions', () => {
-    expect(text).toMatch(/Current gas \(3 of 3\): pH 7\.23, PaCO2 22 mmHg, HCO3 9 mmol\/L[^\n]*inside the metabolic acidosis band/);
+    expect(text).toMatch(
+      /Current gas \(3 of 3\): pH 7\.23, PaCO2 22 mmHg, HCO3 9 mmol\/L[^\n]*inside the metabolic acidosis band/,
+    );
     // 02:30: HCO3 7.5 -> Winters 19.25 +/- 2; PaCO2 28 is above it
-    expect(text).toMatch(/Gas 1 of 3, on arrival, taken 2 Mar 2026 02:30: pH 7\.05, PaCO2 28 mmHg, HCO3 7\.5 mmol\/L[^\n]*outside every compensation band/);
+    expect(text).toMatch(
+      /Gas 1 of 3, on arrival, taken 2 Mar 2026 02:30: pH 7\.05, PaCO2 28 mmHg, HCO3 7\.5 mmol\/L[^\n]*outside every compensation band/,
+    );
     expect(text).toMatch(/Gas 2 of 3, taken 2 Mar 2026 04:10: pH 7\.12/);
     expect(text).toMatch(/steady state/);
     expect(text).toMatch(/local protocols/);
@@ -411,12 +592,15 @@ describe('accessibility and determinism', () => {
     expect(ids.length).toBeGreaterThan(10);
     expect(new Set(ids).size).toBe(ids.length);
     for (const id of ids) expect(id.startsWith('night-map-')).toBe(true);
-    for (const ref of [...svg.matchAll(/url\(#([^)]+)\)/g)].map((m) => m[1] as string)) expect(ids).toContain(ref);
+    for (const ref of [...svg.matchAll(/url\(#([^)]+)\)/g)].map((m) => m[1] as string))
+      expect(ids).toContain(ref);
     expect(acidBaseMap(f, { idPrefix: 'night-map' })).toEqual({ svg, text });
   });
 
   it('refuses options it cannot honour, with a message', () => {
-    expect(() => acidBaseMap(f, { idPrefix: '1 bad"id' })).toThrow(/idPrefix must start with a letter/);
+    expect(() => acidBaseMap(f, { idPrefix: '1 bad"id' })).toThrow(
+      /idPrefix must start with a letter/,
+    );
     expect(() => acidBaseMap(f, { height: 320 })).toThrow(/The map needs at least/);
     expect(() => acidBaseMap(f, { width: Number.NaN })).toThrow(/width must be a number/);
   });
@@ -432,7 +616,10 @@ describe.skipIf(browserMissing && process.env.CI !== 'true')('in a browser', () 
     const browser = await chromium.launch({ executablePath: chromiumPath });
     try {
       const page = await browser.newPage();
-      const c = { ...ketoacidosis, previous: [{ takenAt: hostile, gas: { ph: 7.12, pco2: 25, hco3: 7.9 } }] };
+      const c = {
+        ...ketoacidosis,
+        previous: [{ takenAt: hostile, gas: { ph: 7.12, pco2: 25, hco3: 7.9 } }],
+      };
       const { svg } = acidBaseMap(findingsOf(c));
       const result = await page.evaluate((source) => {
         const doc = new DOMParser().parseFromString(source, 'image/svg+xml');

@@ -5,7 +5,15 @@ import { describe, expect, it } from 'vitest';
 import { createNoteRenderer } from '../../templates/index.ts';
 import type { Json } from '../../views/steps.ts';
 import { STEP_IDS, type StepId } from '../../views/steps.ts';
-import { flowView, renderFragment, renderPage, renderPreview, renderProblem, VIEW_ENGINE, type Presentation } from '../../views/render.ts';
+import {
+  flowView,
+  renderFragment,
+  renderPage,
+  renderPreview,
+  renderProblem,
+  VIEW_ENGINE,
+  type Presentation,
+} from '../../views/render.ts';
 import { ALL_CASES } from '../templates/cases.ts';
 
 const deps = { renderer: createNoteRenderer() };
@@ -13,12 +21,30 @@ const deps = { renderer: createNoteRenderer() };
 const presentations: [string, Presentation][] = [
   ['plain', {}],
   ['a step opened for a change', { open: 'oxygen', announce: 'Oxygen opened' }],
-  ['an error at a field', { open: 'gas', invalid: { step: 'gas', errors: [{ path: 'gas.ph', message: 'pH 9.1 is outside 6.50-8.00: check the value' }], typed: { ph: '9.1 <script>alert(1)</script>' } } }],
-  ['the clinician\'s edits', { edited: { note: 'Edited <b>note</b> & more', handover: 'Handover "quoted"' } }],
+  [
+    'an error at a field',
+    {
+      open: 'gas',
+      invalid: {
+        step: 'gas',
+        errors: [{ path: 'gas.ph', message: 'pH 9.1 is outside 6.50-8.00: check the value' }],
+        typed: { ph: '9.1 <script>alert(1)</script>' },
+      },
+    },
+  ],
+  [
+    "the clinician's edits",
+    { edited: { note: 'Edited <b>note</b> & more', handover: 'Handover "quoted"' } },
+  ],
 ];
 
-const states = (answers: Json): [string, { answers: Json; done: StepId[]; format: 'text' | 'markdown' }][] => [
-  ['nothing answered', { answers: { sample: answers.sample ?? 'arterial' }, done: ['sample'], format: 'text' }],
+const states = (
+  answers: Json,
+): [string, { answers: Json; done: StepId[]; format: 'text' | 'markdown' }][] => [
+  [
+    'nothing answered',
+    { answers: { sample: answers.sample ?? 'arterial' }, done: ['sample'], format: 'text' },
+  ],
   ['the gas only', { answers, done: ['sample', 'gas'], format: 'text' }],
   ['every step, text', { answers, done: [...STEP_IDS], format: 'text' }],
   ['every step, Markdown', { answers, done: [...STEP_IDS], format: 'markdown' }],
@@ -35,7 +61,8 @@ describe('the compiled page', () => {
         for (const [, p] of presentations) {
           const view = flowView(state, deps, p);
           const fragment = renderFragment(view, 'compiled');
-          if (state.done.length === STEP_IDS.length && p === presentations[0]![1]) expect(fragment).toContain(state.format === 'markdown' ? '## Cautions' : 'CAUTIONS');
+          if (state.done.length === STEP_IDS.length && p === presentations[0]![1])
+            expect(fragment).toContain(state.format === 'markdown' ? '## Cautions' : 'CAUTIONS');
           expect(fragment).toBe(renderFragment(view, 'nunjucks'));
           expect(renderPage(view, 'compiled')).toBe(renderPage(view, 'nunjucks'));
         }

@@ -10,7 +10,9 @@
     if (!region) return;
     // clear first so that the same words are read again
     region.textContent = '';
-    window.setTimeout(function () { region.textContent = text; }, 50);
+    window.setTimeout(function () {
+      region.textContent = text;
+    }, 50);
   }
 
   // Copy a text area to the clipboard; fall back to selecting it when the clipboard is refused.
@@ -23,18 +25,29 @@
     function done(ok) {
       button.textContent = ok ? 'Copied' : 'Selected: press Ctrl+C';
       button.classList.toggle('is-copied', ok);
-      announce(ok ? what + ' copied to the clipboard.' : what + ' selected: press Ctrl+C (Cmd+C) to copy.');
-      window.setTimeout(function () { button.textContent = label; button.classList.remove('is-copied'); }, 2500);
+      announce(
+        ok ? what + ' copied to the clipboard.' : what + ' selected: press Ctrl+C (Cmd+C) to copy.',
+      );
+      window.setTimeout(function () {
+        button.textContent = label;
+        button.classList.remove('is-copied');
+      }, 2500);
     }
     function fallback() {
       area.focus();
       area.select();
       var ok = false;
-      try { ok = document.execCommand('copy'); } catch (e) { ok = false; }
+      try {
+        ok = document.execCommand('copy');
+      } catch (e) {
+        ok = false;
+      }
       done(ok);
     }
     if (navigator.clipboard && window.isSecureContext) {
-      navigator.clipboard.writeText(area.value).then(function () { done(true); }, fallback);
+      navigator.clipboard.writeText(area.value).then(function () {
+        done(true);
+      }, fallback);
     } else {
       fallback();
     }
@@ -47,7 +60,15 @@
 
   // Enter moves on from a choice or a unit menu too, not only from a text field.
   document.addEventListener('keydown', function (event) {
-    if (event.key !== 'Enter' || event.shiftKey || event.altKey || event.ctrlKey || event.metaKey || event.isComposing) return;
+    if (
+      event.key !== 'Enter' ||
+      event.shiftKey ||
+      event.altKey ||
+      event.ctrlKey ||
+      event.metaKey ||
+      event.isComposing
+    )
+      return;
     var el = event.target;
     if (!(el instanceof HTMLInputElement || el instanceof HTMLSelectElement)) return;
     var isChoice = el instanceof HTMLSelectElement || el.type === 'radio' || el.type === 'checkbox';
@@ -60,7 +81,12 @@
   document.addEventListener('keydown', function (event) {
     if (event.key !== 'Enter' || !(event.ctrlKey || event.metaKey) || event.isComposing) return;
     var el = event.target;
-    if (!(el instanceof HTMLTextAreaElement) || (el.id !== 'paste-text' && el.id !== 'paste-again') || !el.form) return;
+    if (
+      !(el instanceof HTMLTextAreaElement) ||
+      (el.id !== 'paste-text' && el.id !== 'paste-again') ||
+      !el.form
+    )
+      return;
     event.preventDefault();
     var read = el.form.querySelector('button[value="read"]');
     el.form.requestSubmit(read instanceof HTMLButtonElement ? read : undefined);
@@ -72,7 +98,9 @@
     if (!(el instanceof HTMLInputElement) || el.name !== 'units.pressure') return;
     var form = el.form;
     if (!form) return;
-    form.querySelectorAll('[data-unit-for="units.pressure"]').forEach(function (span) { span.textContent = el.value; });
+    form.querySelectorAll('[data-unit-for="units.pressure"]').forEach(function (span) {
+      span.textContent = el.value;
+    });
   });
 
   // Print what is in the text areas now, edits included.
@@ -92,7 +120,8 @@
       note.id = 'offline-note';
       note.className = 'problem-inline';
       note.setAttribute('role', 'alert');
-      note.textContent = 'The server did not answer. Your answers are still on the page: try again.';
+      note.textContent =
+        'The server did not answer. Your answers are still on the page: try again.';
       flow.prepend(note);
     }
   });

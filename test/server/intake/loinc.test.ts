@@ -12,7 +12,10 @@ function loincCheckDigit(base: string): number {
   let sum = 0;
   [...base].reverse().forEach((ch, i) => {
     let d = Number(ch);
-    if (i % 2 === 0) { d *= 2; if (d > 9) d -= 9; }
+    if (i % 2 === 0) {
+      d *= 2;
+      if (d > 9) d -= 9;
+    }
     sum += d;
   });
   return (10 - (sum % 10)) % 10;
@@ -39,7 +42,14 @@ describe('LOINC codes', () => {
   });
 
   it('every gas value has an arterial and a venous code', () => {
-    for (const path of ['gas.ph', 'gas.pco2', 'gas.po2', 'gas.hco3', 'gas.baseExcess', 'gas.sao2']) {
+    for (const path of [
+      'gas.ph',
+      'gas.pco2',
+      'gas.po2',
+      'gas.hco3',
+      'gas.baseExcess',
+      'gas.sao2',
+    ]) {
       const specimens = LOINC_CODES.filter((e) => e.path === path).map((e) => e.specimen);
       expect(specimens).toContain('arterial');
       expect(specimens).toContain('venous');
@@ -55,9 +65,18 @@ describe('UCUM units', () => {
 
   it('the unit pairs the case can hold convert as UCUM says (g/L and g/dL for albumin and Hb; kPa and mm[Hg])', () => {
     // calc/units.ts against ucum-lhc: 31 g/L in g/dL, 6.4 kPa in mm[Hg]
-    expect(toCanonical('albumin', 31, { ...DEFAULT_UNITS, albumin: 'g/L' })).toBeCloseTo(ucum.convertUnitTo('g/L', 31, 'g/dL').toVal, 10);
-    expect(toCanonical('hb', 121, { ...DEFAULT_UNITS, hb: 'g/L' })).toBeCloseTo(ucum.convertUnitTo('g/L', 121, 'g/dL').toVal, 10);
-    expect(toCanonical('pressure', 6.4, { ...DEFAULT_UNITS, pressure: 'kPa' })).toBeCloseTo(ucum.convertUnitTo('kPa', 6.4, 'mm[Hg]').toVal, 3);
+    expect(toCanonical('albumin', 31, { ...DEFAULT_UNITS, albumin: 'g/L' })).toBeCloseTo(
+      ucum.convertUnitTo('g/L', 31, 'g/dL').toVal,
+      10,
+    );
+    expect(toCanonical('hb', 121, { ...DEFAULT_UNITS, hb: 'g/L' })).toBeCloseTo(
+      ucum.convertUnitTo('g/L', 121, 'g/dL').toVal,
+      10,
+    );
+    expect(toCanonical('pressure', 6.4, { ...DEFAULT_UNITS, pressure: 'kPa' })).toBeCloseTo(
+      ucum.convertUnitTo('kPa', 6.4, 'mm[Hg]').toVal,
+      3,
+    );
   });
 
   it('each accepted code means the unit the case is told (mass codes take mass units, moles codes take mole units)', () => {
@@ -67,7 +86,10 @@ describe('UCUM units', () => {
       if (!unit) throw new Error(`ucum-lhc does not know ${code}`);
       return String(unit.property_);
     };
-    for (const kind of ['glucoseMass', 'bun', 'creatinineMass', 'albumin', 'hb'] as const) for (const code of Object.keys(UCUM[kind])) expect(property(code)).toBe('mass');
-    for (const kind of ['glucoseMolar', 'ureaMolar', 'creatinineMolar'] as const) for (const code of Object.keys(UCUM[kind])) expect(property(code)).toBe('amount of substance');
+    for (const kind of ['glucoseMass', 'bun', 'creatinineMass', 'albumin', 'hb'] as const)
+      for (const code of Object.keys(UCUM[kind])) expect(property(code)).toBe('mass');
+    for (const kind of ['glucoseMolar', 'ureaMolar', 'creatinineMolar'] as const)
+      for (const code of Object.keys(UCUM[kind]))
+        expect(property(code)).toBe('amount of substance');
   });
 });

@@ -38,10 +38,24 @@ const PRINTOUT_KPA = [
 
 // Lines a printout or a copied page carries around its results, none of them a result.
 const REALISTIC_NOISE = [
-  'DEMO GENERAL - BLOOD GAS', 'Patient ID: 4471-22   DOB 03/04/1961', '02/03/2026 04:10', 'Operator 0042',
-  'Analyser S/N 55-1234', 'Printed 02.03.2026 06:45 page 1 of 2', '*** END OF REPORT ***', '-----------------------------',
-  'H = above range, L = below range', 'Barcode 0012345678', 'Ward 7, bed 12', 'Test   Result   Units   Reference',
-  'Requested by: ED registrar', 'Comment: sample received on ice', '', '   ', '====', 'Results validated 06:50',
+  'DEMO GENERAL - BLOOD GAS',
+  'Patient ID: 4471-22   DOB 03/04/1961',
+  '02/03/2026 04:10',
+  'Operator 0042',
+  'Analyser S/N 55-1234',
+  'Printed 02.03.2026 06:45 page 1 of 2',
+  '*** END OF REPORT ***',
+  '-----------------------------',
+  'H = above range, L = below range',
+  'Barcode 0012345678',
+  'Ward 7, bed 12',
+  'Test   Result   Units   Reference',
+  'Requested by: ED registrar',
+  'Comment: sample received on ice',
+  '',
+  '   ',
+  '====',
+  'Results validated 06:50',
 ];
 
 // Random noise from characters that cannot spell a label, a unit, a sample type (no label uses j, q, w, x,
@@ -50,26 +64,67 @@ const NO_LABEL_CHARS = [...'0123456789 -:.#*=()[]_~!?\'"@&;,+jqwxyzJQWXYZ'];
 const noiseLine = fc.oneof(
   fc.constantFrom(...REALISTIC_NOISE),
   fc.string({ unit: fc.constantFrom(...NO_LABEL_CHARS), maxLength: 60 }),
-  fc.array(fc.constantFrom('Ward', 'bed', '12', '04:10', 'ID', 'S/N', '***', 'Printed', 'Result', 'Flag', 'Ref', 'page', '2 of 3', '#', '0042', 'on ice'), { maxLength: 8 }).map((w) => w.join(' ')),
+  fc
+    .array(
+      fc.constantFrom(
+        'Ward',
+        'bed',
+        '12',
+        '04:10',
+        'ID',
+        'S/N',
+        '***',
+        'Printed',
+        'Result',
+        'Flag',
+        'Ref',
+        'page',
+        '2 of 3',
+        '#',
+        '0042',
+        'on ice',
+      ),
+      { maxLength: 8 },
+    )
+    .map((w) => w.join(' ')),
 );
 
 /** Any line at all, including ones that happen to look like a result ("K 0") or a sample type ("vbg"). */
 const anyLine = fc.oneof(
   noiseLine,
   fc.string({ maxLength: 60 }).map((s) => s.replace(/[\r\n]/g, ' ')),
-  fc.string({ unit: 'grapheme', maxLength: 30 }).map((s) => s.replace(/[\r\n\u2028\u2029\u0085]/g, ' ')),
-  fc.tuple(fc.constantFrom('K', 'Na', 'pH', 'pCO2', 'Glu', 'vbg', 'HCO3'), fc.integer({ min: 0, max: 300 })).map(([l, n]) => `${l} ${n}`),
+  fc
+    .string({ unit: 'grapheme', maxLength: 30 })
+    .map((s) => s.replace(/[\r\n\u2028\u2029\u0085]/g, ' ')),
+  fc
+    .tuple(
+      fc.constantFrom('K', 'Na', 'pH', 'pCO2', 'Glu', 'vbg', 'HCO3'),
+      fc.integer({ min: 0, max: 300 }),
+    )
+    .map(([l, n]) => `${l} ${n}`),
 );
 
 /** The lines of the printout in order, with other lines between and around them. */
 const interleave = (printout: string[], line: fc.Arbitrary<string>) =>
-  fc.array(fc.array(line, { maxLength: 3 }), { minLength: printout.length + 1, maxLength: printout.length + 1 })
-    .map((gaps) => gaps.flatMap((noise, i) => (i < printout.length ? [...noise, printout[i]!] : noise)).join('\n'));
+  fc
+    .array(fc.array(line, { maxLength: 3 }), {
+      minLength: printout.length + 1,
+      maxLength: printout.length + 1,
+    })
+    .map((gaps) =>
+      gaps
+        .flatMap((noise, i) => (i < printout.length ? [...noise, printout[i]!] : noise))
+        .join('\n'),
+    );
 
-const valuesRead = (r: PasteResult) => r.read.map((x) => ({ path: x.path, value: x.value, unit: x.unit }));
+const valuesRead = (r: PasteResult) =>
+  r.read.map((x) => ({ path: x.path, value: x.value, unit: x.unit }));
 
 describe('noise lines around a known printout never change what is read', () => {
-  for (const [name, printout] of [['mmHg printout', PRINTOUT_MMHG], ['kPa printout', PRINTOUT_KPA]] as const) {
+  for (const [name, printout] of [
+    ['mmHg printout', PRINTOUT_MMHG],
+    ['kPa printout', PRINTOUT_KPA],
+  ] as const) {
     const clean = parsePaste(printout.join('\n'));
     it(`${name}: the clean printout reads fully and without questions`, () => {
       expect(clean.questions).toEqual([]);
@@ -77,39 +132,138 @@ describe('noise lines around a known printout never change what is read', () => 
       expect(clean.read.length).toBeGreaterThanOrEqual(printout.length - 3);
     });
     it(`${name}: with noise the case, the values read and the questions are the same`, () => {
-      fc.assert(fc.property(interleave([...printout], noiseLine), (text) => {
-        const noisy = parsePaste(text);
-        expect(noisy.case).toEqual(clean.case);
-        expect(valuesRead(noisy)).toEqual(valuesRead(clean));
-        expect(noisy.questions).toEqual(clean.questions);
-      }), { numRuns: RUNS });
+      fc.assert(
+        fc.property(interleave([...printout], noiseLine), (text) => {
+          const noisy = parsePaste(text);
+          expect(noisy.case).toEqual(clean.case);
+          expect(valuesRead(noisy)).toEqual(valuesRead(clean));
+          expect(noisy.questions).toEqual(clean.questions);
+        }),
+        { numRuns: RUNS },
+      );
     });
     it(`${name}: with any lines at all, a value read is never replaced by a different one (it may be withdrawn, with a question)`, () => {
-      fc.assert(fc.property(interleave([...printout], anyLine), (text) => {
-        const noisy = parsePaste(text);
-        for (const x of clean.read) {
-          const now = noisy.read.find((y) => y.path === x.path);
-          if (now) expect({ value: now.value, unit: now.unit }).toEqual({ value: x.value, unit: x.unit });
-          else expect(noisy.questions.some((q) => q.path === x.path)).toBe(true);
-        }
-        if (noisy.case.sample !== clean.case.sample) expect(noisy.questions.some((q) => q.path === 'sample')).toBe(true);
-      }), { numRuns: RUNS });
+      fc.assert(
+        fc.property(interleave([...printout], anyLine), (text) => {
+          const noisy = parsePaste(text);
+          for (const x of clean.read) {
+            const now = noisy.read.find((y) => y.path === x.path);
+            if (now)
+              expect({ value: now.value, unit: now.unit }).toEqual({
+                value: x.value,
+                unit: x.unit,
+              });
+            else expect(noisy.questions.some((q) => q.path === x.path)).toBe(true);
+          }
+          if (noisy.case.sample !== clean.case.sample)
+            expect(noisy.questions.some((q) => q.path === 'sample')).toBe(true);
+        }),
+        { numRuns: RUNS },
+      );
     });
   }
 });
 
 // ---------- random text ----------
 
-const LABEL_WORDS = ['pH', 'PH', 'pCO2', 'PaCO2', 'pO2', 'PaO2', 'HCO3', 'cHCO3-(P)', 'Std HCO3', 'BE', 'BE(B)', 'SBE', 'sO2', 'SpO2', 'O2Hb',
-  'Hb', 'ctHb', 'Lac', 'Glu', 'Na+', 'Na', 'K', 'K+', 'Cl', 'Alb', 'Urea', 'BUN', 'Creat', 'Cr', 'Osm', 'FiO2', 'pH(T)', 'PAO2', 'Base deficit', 'tCO2'];
-const UNIT_WORDS = ['mmHg', 'kPa', 'mmol/L', 'mg/dL', 'g/dL', 'g/L', 'µmol/L', '%', 'mOsm/kg', 'mm Hg', 'mEq/L'];
-const OTHER = [' ', '  ', ':', '=', '|', '\t', ', ', '\n', '\n', '/', ' / ', '(35-45)', '[7.35-7.45]', 'H', 'L', '*', 'arterial', 'venous', 'the', 'was', 'at', '°C', '-', '+', '<', '.'];
+const LABEL_WORDS = [
+  'pH',
+  'PH',
+  'pCO2',
+  'PaCO2',
+  'pO2',
+  'PaO2',
+  'HCO3',
+  'cHCO3-(P)',
+  'Std HCO3',
+  'BE',
+  'BE(B)',
+  'SBE',
+  'sO2',
+  'SpO2',
+  'O2Hb',
+  'Hb',
+  'ctHb',
+  'Lac',
+  'Glu',
+  'Na+',
+  'Na',
+  'K',
+  'K+',
+  'Cl',
+  'Alb',
+  'Urea',
+  'BUN',
+  'Creat',
+  'Cr',
+  'Osm',
+  'FiO2',
+  'pH(T)',
+  'PAO2',
+  'Base deficit',
+  'tCO2',
+];
+const UNIT_WORDS = [
+  'mmHg',
+  'kPa',
+  'mmol/L',
+  'mg/dL',
+  'g/dL',
+  'g/L',
+  'µmol/L',
+  '%',
+  'mOsm/kg',
+  'mm Hg',
+  'mEq/L',
+];
+const OTHER = [
+  ' ',
+  '  ',
+  ':',
+  '=',
+  '|',
+  '\t',
+  ', ',
+  '\n',
+  '\n',
+  '/',
+  ' / ',
+  '(35-45)',
+  '[7.35-7.45]',
+  'H',
+  'L',
+  '*',
+  'arterial',
+  'venous',
+  'the',
+  'was',
+  'at',
+  '°C',
+  '-',
+  '+',
+  '<',
+  '.',
+];
 
 const numberText = fc.oneof(
   fc.integer({ min: 0, max: 999 }).map(String),
-  fc.tuple(fc.integer({ min: 0, max: 200 }), fc.integer({ min: 0, max: 99 }), fc.constantFrom('.', ',')).map(([a, b, sep]) => `${a}${sep}${String(b).padStart(2, '0')}`),
-  fc.tuple(fc.integer({ min: 6, max: 7 }), fc.integer({ min: 0, max: 99 })).map(([a, b]) => `${a}.${String(b).padStart(2, '0')}`),
-  fc.tuple(fc.constantFrom('-', '+'), fc.integer({ min: 0, max: 30 }), fc.integer({ min: 0, max: 9 })).map(([s, a, b]) => `${s}${a}.${b}`),
+  fc
+    .tuple(
+      fc.integer({ min: 0, max: 200 }),
+      fc.integer({ min: 0, max: 99 }),
+      fc.constantFrom('.', ','),
+    )
+    .map(([a, b, sep]) => `${a}${sep}${String(b).padStart(2, '0')}`),
+  fc
+    .tuple(fc.integer({ min: 6, max: 7 }), fc.integer({ min: 0, max: 99 }))
+    .map(([a, b]) => `${a}.${String(b).padStart(2, '0')}`),
+  fc
+    .tuple(
+      fc.constantFrom('-', '+'),
+      fc.integer({ min: 0, max: 30 }),
+      fc.integer({ min: 0, max: 9 }),
+    )
+    .map(([s, a, b]) => `${s}${a}.${b}`),
 );
 
 const token = fc.oneof(
@@ -133,7 +287,9 @@ function numbersIn(text: string): Set<number> {
 }
 
 const caseNumbers = (c: IntakeCase): number[] =>
-  [c.gas, c.chemistry ?? {}, c.oxygen ?? {}, c.context ?? {}].flatMap((g) => Object.values(g as Record<string, number>));
+  [c.gas, c.chemistry ?? {}, c.oxygen ?? {}, c.context ?? {}].flatMap((g) =>
+    Object.values(g as Record<string, number>),
+  );
 
 describe('no text puts a number into the case that it does not contain', () => {
   const check = (text: string) => {
@@ -159,7 +315,9 @@ describe('no text puts a number into the case that it does not contain', () => {
   });
 
   it('random strings of any characters', () => {
-    fc.assert(fc.property(fc.string({ unit: 'grapheme', maxLength: 200 }), check), { numRuns: RUNS });
+    fc.assert(fc.property(fc.string({ unit: 'grapheme', maxLength: 200 }), check), {
+      numRuns: RUNS,
+    });
     fc.assert(fc.property(fc.string({ unit: 'binary', maxLength: 200 }), check), { numRuns: RUNS });
   });
 });
@@ -172,11 +330,14 @@ describe('the shorthand never gives a number other than the one written', () => 
       po2: fc.integer({ min: 40, max: 500 }),
       hco3: fc.integer({ min: 4, max: 50 }),
     });
-    fc.assert(fc.property(gas, ({ ph, pco2, po2, hco3 }) => {
-      const r = parsePaste(`${ph.toFixed(2)}/${pco2}/${po2}/${hco3} mmHg`);
-      expect(r.case.gas).toEqual({ ph, pco2, po2, hco3 });
-      expect(r.case.units).toEqual({ pressure: 'mmHg' });
-    }), { numRuns: RUNS });
+    fc.assert(
+      fc.property(gas, ({ ph, pco2, po2, hco3 }) => {
+        const r = parsePaste(`${ph.toFixed(2)}/${pco2}/${po2}/${hco3} mmHg`);
+        expect(r.case.gas).toEqual({ ph, pco2, po2, hco3 });
+        expect(r.case.units).toEqual({ pressure: 'mmHg' });
+      }),
+      { numRuns: RUNS },
+    );
   });
 
   it('without a unit: each pressure is the number written, or is asked about', () => {
@@ -186,13 +347,20 @@ describe('the shorthand never gives a number other than the one written', () => 
       po2: fc.integer({ min: 20, max: 5000 }).map((x) => x / 10),
       hco3: fc.integer({ min: 4, max: 50 }),
     });
-    fc.assert(fc.property(gas, ({ ph, pco2, po2, hco3 }) => {
-      const r = parsePaste(`${ph.toFixed(2)}/${pco2}/${po2}/${hco3}`);
-      for (const [key, value] of [['pco2', pco2], ['po2', po2]] as const) {
-        const got = r.case.gas[key];
-        if (got === undefined) expect(r.questions.some((q) => q.path === `gas.${key}`)).toBe(true);
-        else expect(got).toBe(value);
-      }
-    }), { numRuns: RUNS });
+    fc.assert(
+      fc.property(gas, ({ ph, pco2, po2, hco3 }) => {
+        const r = parsePaste(`${ph.toFixed(2)}/${pco2}/${po2}/${hco3}`);
+        for (const [key, value] of [
+          ['pco2', pco2],
+          ['po2', po2],
+        ] as const) {
+          const got = r.case.gas[key];
+          if (got === undefined)
+            expect(r.questions.some((q) => q.path === `gas.${key}`)).toBe(true);
+          else expect(got).toBe(value);
+        }
+      }),
+      { numRuns: RUNS },
+    );
   });
 });

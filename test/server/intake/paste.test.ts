@@ -6,7 +6,8 @@ import { parsePaste, parseShorthand } from '../../../server/intake/index.ts';
 import { parseCase } from '../../../calc/index.ts';
 
 const paths = (qs: { path: string }[]) => qs.map((q) => q.path);
-const skippedReasons = (r: ReturnType<typeof parsePaste>) => r.skipped.map((s) => `${s.sourceText.split(/\s+/)[0]}: ${s.reason}`);
+const skippedReasons = (r: ReturnType<typeof parsePaste>) =>
+  r.skipped.map((s) => `${s.sourceText.split(/\s+/)[0]}: ${s.reason}`);
 
 describe('printout layouts', () => {
   it('A: vertical analyser strip in mmHg with flags, ranges, pH(T), standard HCO3, BE(ecf) and O2Hb', () => {
@@ -37,20 +38,40 @@ FiO2 40 %
     expect(r.case).toEqual({
       sample: 'arterial',
       units: { pressure: 'mmHg', hb: 'g/dL', glucose: 'mg/dL' },
-      gas: { ph: 7.31, pco2: 48, po2: 72, hco3: 23.5, baseExcess: -2.1, sao2: 93, hb: 12.1, lactate: 1.1 },
+      gas: {
+        ph: 7.31,
+        pco2: 48,
+        po2: 72,
+        hco3: 23.5,
+        baseExcess: -2.1,
+        sao2: 93,
+        hb: 12.1,
+        lactate: 1.1,
+      },
       chemistry: { na: 138, k: 4.1, cl: 104, glucose: 110 },
       oxygen: { fio2: 40 },
     });
     expect(r.questions).toEqual([]);
     expect(r.missing).toEqual([]);
-    expect(r.read.find((x) => x.path === 'gas.pco2')).toMatchObject({ value: 48, unit: 'mmHg', unitFrom: 'text', sourceText: 'pCO2      48     mmHg H  (35-45)', line: 7 });
+    expect(r.read.find((x) => x.path === 'gas.pco2')).toMatchObject({
+      value: 48,
+      unit: 'mmHg',
+      unitFrom: 'text',
+      sourceText: 'pCO2      48     mmHg H  (35-45)',
+      line: 7,
+    });
     expect(skippedReasons(r)).toEqual([
       'pH(T): temperature-corrected value; the 37 °C value is the one read',
       'Std: standard bicarbonate is not the actual HCO3',
       'BE(ecf): standard base excess: the actual base excess is read',
       'O2Hb: oxyhaemoglobin fraction: sO2 is read (they differ when COHb or MetHb is raised)',
     ]);
-    expect(r.ignored).toEqual(['DEMO GENERAL - BLOOD GAS', 'Patient ID: 4471-22   DOB 03/04/1961', '02/03/2026 04:10   Operator 0042', '*** end of report ***']);
+    expect(r.ignored).toEqual([
+      'DEMO GENERAL - BLOOD GAS',
+      'Patient ID: 4471-22   DOB 03/04/1961',
+      '02/03/2026 04:10   Operator 0042',
+      '*** end of report ***',
+    ]);
     expect(parseCase(r.case).ok).toBe(true);
   });
 
@@ -76,13 +97,34 @@ Osmolality          298       mOsm/kg    275 - 295      H`;
     const r = parsePaste(text);
     expect(r.case).toEqual({
       sample: 'arterial',
-      units: { pressure: 'kPa', albumin: 'g/L', urea: 'urea-mmol/L', creatinine: 'umol/L', glucose: 'mmol/L' },
+      units: {
+        pressure: 'kPa',
+        albumin: 'g/L',
+        urea: 'urea-mmol/L',
+        creatinine: 'umol/L',
+        glucose: 'mmol/L',
+      },
       gas: { ph: 7.28, pco2: 7.9, po2: 8.1, hco3: 27.4, baseExcess: 2.1, lactate: 0.9 },
-      chemistry: { na: 141, k: 3.6, cl: 99, albumin: 31, urea: 9.2, creatinine: 104, glucose: 7.4, osmolality: 298 },
+      chemistry: {
+        na: 141,
+        k: 3.6,
+        cl: 99,
+        albumin: 31,
+        urea: 9.2,
+        creatinine: 104,
+        glucose: 7.4,
+        osmolality: 298,
+      },
     });
     expect(r.questions).toEqual([]);
-    expect(r.read.find((x) => x.path === 'chemistry.creatinine')).toMatchObject({ unit: 'µmol/L', unitFrom: 'text' });
-    expect(r.ignored).toEqual(['DEMO INFIRMARY LABORATORY          Report printed 02.03.2026 06:45', 'Test                Result    Units      Reference']);
+    expect(r.read.find((x) => x.path === 'chemistry.creatinine')).toMatchObject({
+      unit: 'µmol/L',
+      unitFrom: 'text',
+    });
+    expect(r.ignored).toEqual([
+      'DEMO INFIRMARY LABORATORY          Report printed 02.03.2026 06:45',
+      'Test                Result    Units      Reference',
+    ]);
     expect(parseCase(r.case).ok).toBe(true);
   });
 
@@ -109,7 +151,13 @@ Osmolality          298       mOsm/kg    275 - 295      H`;
     const r = parsePaste(text);
     expect(r.case).toEqual({
       sample: 'arterial',
-      units: { pressure: 'mmHg', urea: 'bun-mg/dL', creatinine: 'mg/dL', glucose: 'mg/dL', albumin: 'g/dL' },
+      units: {
+        pressure: 'mmHg',
+        urea: 'bun-mg/dL',
+        creatinine: 'mg/dL',
+        glucose: 'mg/dL',
+        albumin: 'g/dL',
+      },
       gas: { ph: 7.12, pco2: 22, po2: 104, hco3: 7, baseExcess: -21.4, sao2: 98, lactate: 2.6 },
       chemistry: { na: 131, k: 5.6, cl: 96, urea: 31, creatinine: 1.6, glucose: 486, albumin: 4.4 },
     });
@@ -123,7 +171,8 @@ Osmolality          298       mOsm/kg    275 - 295      H`;
 
   it('D: a typed note with several results on one line, kPa written beside the pressures', () => {
     // invented: 58-year-old with an exacerbation of COPD on a 28% venturi mask
-    const text = 'ABG on 28% venturi: pH 7.29, PaCO2 8.2 kPa, PaO2 7.1 kPa, HCO3 29, BE +3.4, lactate 1.2. Na 136, K 4.4.';
+    const text =
+      'ABG on 28% venturi: pH 7.29, PaCO2 8.2 kPa, PaO2 7.1 kPa, HCO3 29, BE +3.4, lactate 1.2. Na 136, K 4.4.';
     const r = parsePaste(text);
     expect(r.case).toEqual({
       sample: 'arterial',
@@ -150,35 +199,59 @@ Na    K     Cl    Lac
       gas: { ph: 7.19, pco2: 5.9, po2: 7.4, hco3: 16.2, baseExcess: -11, lactate: 9.8 },
       chemistry: { na: 139, k: 3.9, cl: 103 },
     });
-    expect(r.read.find((x) => x.path === 'gas.pco2')).toMatchObject({ unit: 'kPa', unitFrom: 'printout' });
+    expect(r.read.find((x) => x.path === 'gas.pco2')).toMatchObject({
+      unit: 'kPa',
+      unitFrom: 'printout',
+    });
     expect(r.questions).toEqual([]);
   });
 
   it('F: compact capitals with "=", no pressure unit: mmHg because 25 is not a believable PaCO2 in kPa', () => {
     // invented: 30-year-old with salicylate poisoning
-    const text = 'pH=7.12 PCO2=25 PO2=96 HCO3=8 BE=-20 SO2=97% HB=13.4 g/dL NA=130 K=5.9 CL=96 GLU=28.4 mmol/L LAC=6.1';
+    const text =
+      'pH=7.12 PCO2=25 PO2=96 HCO3=8 BE=-20 SO2=97% HB=13.4 g/dL NA=130 K=5.9 CL=96 GLU=28.4 mmol/L LAC=6.1';
     const r = parsePaste(text);
-    expect(r.case.gas).toEqual({ ph: 7.12, pco2: 25, po2: 96, hco3: 8, baseExcess: -20, sao2: 97, hb: 13.4, lactate: 6.1 });
+    expect(r.case.gas).toEqual({
+      ph: 7.12,
+      pco2: 25,
+      po2: 96,
+      hco3: 8,
+      baseExcess: -20,
+      sao2: 97,
+      hb: 13.4,
+      lactate: 6.1,
+    });
     expect(r.case.chemistry).toEqual({ na: 130, k: 5.9, cl: 96, glucose: 28.4 });
     expect(r.case.units).toEqual({ pressure: 'mmHg', hb: 'g/dL', glucose: 'mmol/L' });
     expect(r.read.find((x) => x.path === 'gas.pco2')?.unitFrom).toBe('magnitude');
     // the sample type is not written: asked, because without it the core reads the gas as arterial
-    expect(r.questions).toEqual([expect.objectContaining({ path: 'sample', options: ['arterial', 'venous', 'capillary'] })]);
+    expect(r.questions).toEqual([
+      expect.objectContaining({ path: 'sample', options: ['arterial', 'venous', 'capillary'] }),
+    ]);
   });
 
   it('G: a venous gas in the shorthand with a place holder for PO2 and the unit in brackets', () => {
     const r = parsePaste('VBG 7.33/52/-/27 (mmHg)');
-    expect(r.case).toEqual({ sample: 'venous', units: { pressure: 'mmHg' }, gas: { ph: 7.33, pco2: 52, hco3: 27 } });
+    expect(r.case).toEqual({
+      sample: 'venous',
+      units: { pressure: 'mmHg' },
+      gas: { ph: 7.33, pco2: 52, hco3: 27 },
+    });
     expect(r.questions).toEqual([]);
     expect(parseCase(r.case).ok).toBe(true);
   });
 
   it('H: a results page copied as HTML: one table row per line', () => {
-    const html = '<html><body><h3>Results</h3><table><tr><th>Test</th><th>Result</th></tr>'
-      + '<tr><td>pH</td><td>7.41</td></tr><tr><td>PaCO2</td><td>39 mmHg</td></tr><tr><td>PaO2</td><td>88 mmHg</td></tr>'
-      + '<tr><td>HCO3</td><td>24.6 mmol/L</td></tr><tr><td>Sample</td><td>Arterial</td></tr></table></body></html>';
+    const html =
+      '<html><body><h3>Results</h3><table><tr><th>Test</th><th>Result</th></tr>' +
+      '<tr><td>pH</td><td>7.41</td></tr><tr><td>PaCO2</td><td>39 mmHg</td></tr><tr><td>PaO2</td><td>88 mmHg</td></tr>' +
+      '<tr><td>HCO3</td><td>24.6 mmol/L</td></tr><tr><td>Sample</td><td>Arterial</td></tr></table></body></html>';
     const r = parsePaste(html);
-    expect(r.case).toEqual({ sample: 'arterial', units: { pressure: 'mmHg' }, gas: { ph: 7.41, pco2: 39, po2: 88, hco3: 24.6 } });
+    expect(r.case).toEqual({
+      sample: 'arterial',
+      units: { pressure: 'mmHg' },
+      gas: { ph: 7.41, pco2: 39, po2: 88, hco3: 24.6 },
+    });
     expect(r.questions).toEqual([]);
   });
 
@@ -245,8 +318,22 @@ describe('the shorthand pH/PaCO2/PaO2/HCO3', () => {
   });
 
   it('parseShorthand returns the numbers as written and the unit, if any', () => {
-    expect(parseShorthand('ABG: 7.24/9.1/7.8/29 kPa on 35%')).toEqual({ ph: 7.24, pco2: 9.1, po2: 7.8, hco3: 29, unit: 'kPa', sourceText: '7.24/9.1/7.8/29 kPa' });
-    expect(parseShorthand('VBG 7.28 / 52 / x / 26')).toEqual({ ph: 7.28, pco2: 52, po2: null, hco3: 26, unit: null, sourceText: '7.28 / 52 / x / 26' });
+    expect(parseShorthand('ABG: 7.24/9.1/7.8/29 kPa on 35%')).toEqual({
+      ph: 7.24,
+      pco2: 9.1,
+      po2: 7.8,
+      hco3: 29,
+      unit: 'kPa',
+      sourceText: '7.24/9.1/7.8/29 kPa',
+    });
+    expect(parseShorthand('VBG 7.28 / 52 / x / 26')).toEqual({
+      ph: 7.28,
+      pco2: 52,
+      po2: null,
+      hco3: 26,
+      unit: null,
+      sourceText: '7.28 / 52 / x / 26',
+    });
     expect(parseShorthand('no gas here')).toBeNull();
   });
 });
@@ -255,8 +342,14 @@ describe('units: read from the text, decided by magnitude only where one reading
   const one = (text: string) => parsePaste(text);
 
   it('albumin: 3.1 is g/dL, 31 is g/L, 7 is neither and is asked about', () => {
-    expect(one('Albumin 3.1').case).toMatchObject({ chemistry: { albumin: 3.1 }, units: { albumin: 'g/dL' } });
-    expect(one('Albumin 31').case).toMatchObject({ chemistry: { albumin: 31 }, units: { albumin: 'g/L' } });
+    expect(one('Albumin 3.1').case).toMatchObject({
+      chemistry: { albumin: 3.1 },
+      units: { albumin: 'g/dL' },
+    });
+    expect(one('Albumin 31').case).toMatchObject({
+      chemistry: { albumin: 31 },
+      units: { albumin: 'g/L' },
+    });
     const r = one('Albumin 7');
     expect(r.case.chemistry).toBeUndefined();
     expect(paths(r.questions)).toEqual(['chemistry.albumin']);
@@ -280,7 +373,10 @@ describe('units: read from the text, decided by magnitude only where one reading
   it('takes a bare PaO2 in the unit written on the PaCO2 line when it is plausible there', () => {
     const r = one('pCO2 5.1 kPa\npO2 11.2');
     expect(r.case.gas).toEqual({ pco2: 5.1, po2: 11.2 });
-    expect(r.read.find((x) => x.path === 'gas.po2')).toMatchObject({ unit: 'kPa', unitFrom: 'printout' });
+    expect(r.read.find((x) => x.path === 'gas.po2')).toMatchObject({
+      unit: 'kPa',
+      unitFrom: 'printout',
+    });
   });
 
   it('asks about a pressure written in a unit where it is not plausible', () => {
@@ -290,28 +386,52 @@ describe('units: read from the text, decided by magnitude only where one reading
   });
 
   it('glucose 6.2 is mmol/L, 110 is mg/dL, 35 fits both and is asked', () => {
-    expect(one('Glucose 6.2').case).toMatchObject({ chemistry: { glucose: 6.2 }, units: { glucose: 'mmol/L' } });
-    expect(one('Glucose 110').case).toMatchObject({ chemistry: { glucose: 110 }, units: { glucose: 'mg/dL' } });
+    expect(one('Glucose 6.2').case).toMatchObject({
+      chemistry: { glucose: 6.2 },
+      units: { glucose: 'mmol/L' },
+    });
+    expect(one('Glucose 110').case).toMatchObject({
+      chemistry: { glucose: 110 },
+      units: { glucose: 'mg/dL' },
+    });
     expect(paths(one('Glucose 35').questions)).toEqual(['chemistry.glucose']);
   });
 
   it('creatinine 1.2 is mg/dL, 88 is µmol/L, 18 is asked', () => {
-    expect(one('Creat 1.2').case).toMatchObject({ chemistry: { creatinine: 1.2 }, units: { creatinine: 'mg/dL' } });
-    expect(one('Creat 88').case).toMatchObject({ chemistry: { creatinine: 88 }, units: { creatinine: 'umol/L' } });
+    expect(one('Creat 1.2').case).toMatchObject({
+      chemistry: { creatinine: 1.2 },
+      units: { creatinine: 'mg/dL' },
+    });
+    expect(one('Creat 88').case).toMatchObject({
+      chemistry: { creatinine: 88 },
+      units: { creatinine: 'umol/L' },
+    });
     expect(paths(one('Creat 18').questions)).toEqual(['chemistry.creatinine']);
   });
 
   it('urea: mmol/L when written, BUN when labelled so, and asked when "urea" comes in mg/dL or without a unit', () => {
-    expect(one('Urea 6.4 mmol/L').case).toMatchObject({ chemistry: { urea: 6.4 }, units: { urea: 'urea-mmol/L' } });
-    expect(one('BUN 18').case).toMatchObject({ chemistry: { urea: 18 }, units: { urea: 'bun-mg/dL' } });
-    expect(one('Urea 40 mg/dL').questions[0]).toMatchObject({ path: 'chemistry.urea', options: ['BUN mg/dL', 'urea mg/dL'] });
+    expect(one('Urea 6.4 mmol/L').case).toMatchObject({
+      chemistry: { urea: 6.4 },
+      units: { urea: 'urea-mmol/L' },
+    });
+    expect(one('BUN 18').case).toMatchObject({
+      chemistry: { urea: 18 },
+      units: { urea: 'bun-mg/dL' },
+    });
+    expect(one('Urea 40 mg/dL').questions[0]).toMatchObject({
+      path: 'chemistry.urea',
+      options: ['BUN mg/dL', 'urea mg/dL'],
+    });
     expect(paths(one('Urea 6.4').questions)).toEqual(['chemistry.urea']);
   });
 
   it('Hb: g/dL or g/L when written; a bare 12.1 is asked (g/dL, or mmol/L as some countries report it); 121 is g/L', () => {
     expect(one('Hb 12.1 g/dL').case).toMatchObject({ gas: { hb: 12.1 }, units: { hb: 'g/dL' } });
     expect(one('Hb 121').case).toMatchObject({ gas: { hb: 121 }, units: { hb: 'g/L' } });
-    expect(one('Hb 12.1').questions[0]).toMatchObject({ path: 'gas.hb', options: ['g/dL', 'g/L', 'mmol/L'] });
+    expect(one('Hb 12.1').questions[0]).toMatchObject({
+      path: 'gas.hb',
+      options: ['g/dL', 'g/L', 'mmol/L'],
+    });
     expect(paths(one('Hb 7.5 mmol/L').questions)).toEqual(['gas.hb']);
   });
 
@@ -359,7 +479,10 @@ describe('labels that look alike', () => {
   });
 
   it('"PAO2" is asked about unless the paste writes every label in capitals (PACO2)', () => {
-    expect(parsePaste('PAO2 84').questions[0]).toMatchObject({ path: 'gas.po2', options: ['arterial PaO2', 'alveolar PAO2'] });
+    expect(parsePaste('PAO2 84').questions[0]).toMatchObject({
+      path: 'gas.po2',
+      options: ['arterial PaO2', 'alveolar PAO2'],
+    });
     expect(parsePaste('PACO2 41\nPAO2 84').case.gas).toEqual({ pco2: 41, po2: 84 });
   });
 
@@ -396,7 +519,9 @@ describe('conflicts and doubt', () => {
   });
 
   it('two sample types named: asked', () => {
-    const r = parsePaste('Arterial sample\npH 7.40\nPaCO2 40 mmHg\n(venous sample sent separately)');
+    const r = parsePaste(
+      'Arterial sample\npH 7.40\nPaCO2 40 mmHg\n(venous sample sent separately)',
+    );
     expect(r.case.sample).toBeUndefined();
     expect(r.questions[0]).toMatchObject({ path: 'sample', options: ['arterial', 'venous'] });
   });
@@ -409,14 +534,22 @@ describe('conflicts and doubt', () => {
 describe('partial pastes', () => {
   it('chemistry only: no gas values, the three gas values reported missing, no sample question', () => {
     const r = parsePaste('Na 138 K 4.1 Cl 104 Alb 3.4');
-    expect(r.case).toEqual({ gas: {}, chemistry: { na: 138, k: 4.1, cl: 104, albumin: 3.4 }, units: { albumin: 'g/dL' } });
+    expect(r.case).toEqual({
+      gas: {},
+      chemistry: { na: 138, k: 4.1, cl: 104, albumin: 3.4 },
+      units: { albumin: 'g/dL' },
+    });
     expect(r.missing).toEqual(['gas.ph', 'gas.pco2', 'gas.hco3']);
     expect(r.questions).toEqual([]);
   });
 
   it('pH and PaCO2 only: enough for the schema, HCO3 missing', () => {
     const r = parsePaste('venous gas\npH 7.35\npvCO2 49 mmHg');
-    expect(r.case).toEqual({ sample: 'venous', units: { pressure: 'mmHg' }, gas: { ph: 7.35, pco2: 49 } });
+    expect(r.case).toEqual({
+      sample: 'venous',
+      units: { pressure: 'mmHg' },
+      gas: { ph: 7.35, pco2: 49 },
+    });
     expect(r.missing).toEqual(['gas.hco3']);
     expect(parseCase(r.case).ok).toBe(true);
   });
@@ -427,8 +560,14 @@ describe('junk gives no values', () => {
     ['empty', ''],
     ['spaces and blank lines', '   \n\n\t \n'],
     ['random text', 'qz 88 lorem ipsum 7.3 dolor // 12:40 ## ~~ 0x7f'],
-    ['an email', 'From: ward7@example.org\nSubject: bloods\nHi, can you check the lactate 4.2 from this morning? Ward K 5, bed 12.\nThanks'],
-    ['an HTML page', '<!doctype html><html><head><title>Login</title><style>p{margin:7.31px}</style></head><body><p>Please sign in</p><script>var pH=7.31;</script></body></html>'],
+    [
+      'an email',
+      'From: ward7@example.org\nSubject: bloods\nHi, can you check the lactate 4.2 from this morning? Ward K 5, bed 12.\nThanks',
+    ],
+    [
+      'an HTML page',
+      '<!doctype html><html><head><title>Login</title><style>p{margin:7.31px}</style></head><body><p>Please sign in</p><script>var pH=7.31;</script></body></html>',
+    ],
     ['a list of dates and times', '02/03/2026 04:10\n03.03.2026 06:00\n2026-03-04T08:15'],
   ])('%s', (_name, text) => {
     const r = parsePaste(text);
@@ -439,7 +578,14 @@ describe('junk gives no values', () => {
 
   it('stays fast on long, hostile pastes (every input is read in one pass per line)', () => {
     const n = 60_000; // about the API body limit of 64 KiB
-    for (const text of ['K 4 '.repeat(n / 4), 'pH 1-'.repeat(n / 5), 'pH 7.31\n'.repeat(n / 8), '('.repeat(n), '<p><script>'.repeat(n / 11), '7.3/'.repeat(n / 4)]) {
+    for (const text of [
+      'K 4 '.repeat(n / 4),
+      'pH 1-'.repeat(n / 5),
+      'pH 7.31\n'.repeat(n / 8),
+      '('.repeat(n),
+      '<p><script>'.repeat(n / 11),
+      '7.3/'.repeat(n / 4),
+    ]) {
       const start = performance.now();
       parsePaste(text);
       expect(performance.now() - start).toBeLessThan(2000);
