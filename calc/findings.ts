@@ -1,21 +1,15 @@
 // The findings of one reading: the shape interpret() returns (data only), and the helpers its parts share.
-import { type FieldError } from './schema.ts';
-import { type CanonicalCase, type Gas } from './canonical.ts';
-import { type Settings } from './reference.ts';
-import { type Consistency } from './acidBase.ts';
-import {
-  type Band,
-  type Compensation,
-  type Disorder,
-  type PhStatus,
-  type ReferencePoint,
-} from './compensation.ts';
-import { type DeltaBand } from './anionGap.ts';
-import { type LactateBand } from './osmolality.ts';
-import { type OxygenationLevel, type PfBand } from './oxygenation.ts';
-import { type Flag } from './flags.ts';
-import { type Explanation } from './explain.ts';
-import { type Units } from './units.ts';
+import type { FieldError } from './schema.ts';
+import type { CanonicalCase, Gas } from './canonical.ts';
+import type { Settings } from './reference.ts';
+import type { Consistency } from './acidBase.ts';
+import type { Band, Compensation, Disorder, PhStatus, ReferencePoint } from './compensation.ts';
+import type { DeltaBand } from './anionGap.ts';
+import type { LactateBand } from './osmolality.ts';
+import type { OxygenationLevel, PfBand } from './oxygenation.ts';
+import type { Flag } from './flags.ts';
+import type { Explanation } from './explain.ts';
+import type { Units } from './units.ts';
 
 export type N = number | null;
 

@@ -29,7 +29,7 @@ import {
 import { standardBaseExcess } from './physicochemical.ts';
 import { bySeverity, flag, type Flag } from './flags.ts';
 import { explanation, input, round, type Explanation } from './explain.ts';
-import { type Units } from './units.ts';
+import type { Units } from './units.ts';
 import {
   type Derived,
   type Metabolic,

@@ -1,6 +1,6 @@
 // The metabolic part of a reading: anion gap, delta ratio, osmolar gap, lactate, the physicochemical view, urine.
-import { type CanonicalCase } from './canonical.ts';
-import { type Settings } from './reference.ts';
+import type { CanonicalCase } from './canonical.ts';
+import type { Settings } from './reference.ts';
 import {
   albuminCorrectedAnionGap,
   anionGap,

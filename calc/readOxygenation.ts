@@ -1,5 +1,5 @@
 // The oxygenation part of a reading (arterial samples only), and what a venous or capillary sample can show.
-import { type CanonicalCase } from './canonical.ts';
+import type { CanonicalCase } from './canonical.ts';
 import { OXYGENATION, PHYSIOLOGY, VENOUS } from './reference.ts';
 import {
   aaGradient,

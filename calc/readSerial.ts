@@ -1,5 +1,5 @@
 // Serial gases: earlier gases in time order, what changed, and the PaCO2 predicted after a ventilator change.
-import { type CanonicalCase } from './canonical.ts';
+import type { CanonicalCase } from './canonical.ts';
 import { SERIAL } from './reference.ts';
 import { alveolarVentilation, predictedPco2AfterChange } from './ventilation.ts';
 import { explanation, input, round } from './explain.ts';

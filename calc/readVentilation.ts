@@ -1,6 +1,6 @@
 // The ventilation part of a reading: PBW, VT per kg, pressures, dead space, the target PaCO2 and the settings to reach it.
 import { VENTILATOR_RANGES } from './schema.ts';
-import { type CanonicalCase } from './canonical.ts';
+import type { CanonicalCase } from './canonical.ts';
 import { NORMAL, VENTILATION } from './reference.ts';
 import { hydrogenIon } from './acidBase.ts';
 import { wintersPco2, type Classification, type ReferencePoint } from './compensation.ts';

@@ -8,7 +8,6 @@ import type { Findings, Flag } from '../calc/index.ts';
 import { formatter } from './format.ts';
 import { flagView } from './flagView.ts';
 import { buildView, type NoteFormat } from './view.ts';
-import { createCompiledTemplates, Unsupported } from './compile.ts';
 
 export interface Note {
   line: string;
@@ -18,8 +17,6 @@ export interface Note {
 }
 
 export interface NoteRenderer {
-  /** 'compiled': the templates run as compiled functions (compile.ts); 'nunjucks': nunjucks' own runtime */
-  readonly engine: 'compiled' | 'nunjucks';
   render(findings: Findings, options?: { format?: 'text' | 'markdown' }): Note;
   /** one sentence per flag, used for the API's flags[].message */
   flagMessage(flag: Flag, findings: Findings): string;
@@ -33,71 +30,16 @@ const ENTRY = { line: 'line.njk', note: 'note.njk', handover: 'handover.njk' } a
 const FLAG_MESSAGE_SOURCE = '{% import "flag.njk" as fl %}{{ fl.message(flag) }}';
 
 /**
- * Whitespace inside a paragraph becomes single spaces; no space is left before punctuation, and a sentence
- * that a template tag ran into the next one gets its space back. Character classes for the rules below, for
- * every UTF-16 code unit; SPACE is exactly what a regular expression's \s matches (the test checks all 65,536).
- */
-const SPACE = 1,
-  UPPER = 2,
-  STOP = 3,
-  CLOSING = 4,
-  OPENING = 5; // STOP (. ; :) also closes
-export const WHITESPACE_CODES = [
-  9, 10, 11, 12, 13, 32, 160, 5760, 8192, 8193, 8194, 8195, 8196, 8197, 8198, 8199, 8200, 8201,
-  8202, 8232, 8233, 8239, 8287, 12288, 65279,
-];
-const CLASS = new Uint8Array(65536);
-for (const c of WHITESPACE_CODES) CLASS[c] = SPACE;
-for (let c = 65; c <= 90; c++) CLASS[c] = UPPER;
-for (const c of [46, 59, 58]) CLASS[c] = STOP;
-for (const c of [44, 41]) CLASS[c] = CLOSING;
-CLASS[40] = OPENING;
-
-/**
- * One pass over the text: whitespace runs become one space, no space before , . ; : ) or after (, a space
- * after . ; : when a capital follows directly, and no space at either end. Stretches that need no change
- * (words with single spaces between them) are copied whole; only the places that change break the copy.
+ * Whitespace inside a paragraph becomes single spaces; no space is left before , . ; : ) or after (, and a
+ * sentence that a template tag ran into the next one gets its space back.
  */
 export function paragraph(value: unknown): string {
-  const text = String(value ?? '');
-  const n = text.length;
-  let out = '';
-  let start = -1; // where the stretch being copied began; -1 while none is open
-  let last = -1; // class of the last character kept that is not a space; -1 while none is
-  let prev = -1; // class of the character just before this one in the output
-  let i = 0;
-  while (i < n) {
-    const c = CLASS[text.charCodeAt(i)]!;
-    if (c !== SPACE) {
-      if (start < 0) start = i;
-      else if (c === UPPER && prev === STOP) {
-        out += text.slice(start, i) + ' ';
-        start = i;
-      }
-      prev = last = c;
-      i++;
-      continue;
-    }
-    let j = i + 1;
-    while (j < n && CLASS[text.charCodeAt(j)] === SPACE) j++;
-    if (j >= n) break; // trailing whitespace goes
-    const next = CLASS[text.charCodeAt(j)];
-    const keep = last !== -1 && next !== STOP && next !== CLOSING && last !== OPENING;
-    // one plain space that stays: the stretch goes on
-    if (keep && j === i + 1 && text.charCodeAt(i) === 32) {
-      prev = SPACE;
-      i = j;
-      continue;
-    }
-    if (start >= 0) out += text.slice(start, i);
-    if (keep) {
-      out += ' ';
-      prev = SPACE;
-    }
-    start = j;
-    i = j;
-  }
-  return start >= 0 ? out + text.slice(start, i) : out;
+  return String(value ?? '')
+    .replace(/\s+/g, ' ')
+    .replace(/ ([,.;:)])/g, '$1')
+    .replace(/\( /g, '(')
+    .replace(/([.;:])(?=[A-Z])/g, '$1 ')
+    .trim();
 }
 
 /** First letter up, the rest untouched (unlike nunjucks' capitalize, which would spoil "PaCO2"). */
@@ -155,9 +97,7 @@ function isFindings(x: unknown): x is Findings {
  * One nunjucks environment per renderer. Every template is read and compiled here, once; a render reads no file.
  * A template that prints a missing value throws (throwOnUndefined), so a gap in the data never reaches a note.
  */
-export function createNoteRenderer(
-  options: { templateDir?: string | null; engine?: 'compiled' | 'nunjucks' } = {},
-): NoteRenderer {
+export function createNoteRenderer(options: { templateDir?: string | null } = {}): NoteRenderer {
   const departmentDir = options.templateDir ? checkFolder(options.templateDir) : null;
   const searchPaths =
     departmentDir && departmentDir !== DEFAULT_TEMPLATE_DIR
@@ -171,8 +111,6 @@ export function createNoteRenderer(
     lstripBlocks: true,
   });
   env.addFilter('para', paragraph);
-  // the built-in trim runs a regular expression over the whole text; the native trim does the same job
-  env.addFilter('trim', (value: unknown) => String(value ?? '').trim());
   env.addFilter('sentence', sentenceCase);
   env.addFilter('known', (items: unknown) =>
     Array.isArray(items)
@@ -188,13 +126,14 @@ export function createNoteRenderer(
       : [],
   );
 
-  // read and compile everything now, the department's files and the defaults alike, by one engine or the other
-  const names = new Set<string>(searchPaths.flatMap((dir) => templateFiles(dir)));
-  const entries =
-    compiledEntries(env, names, options.engine ?? 'compiled') ?? nunjucksEntries(env, names);
+  // read and compile everything now, the department's files and the defaults alike
+  for (const dir of searchPaths) for (const name of templateFiles(dir)) env.getTemplate(name, true);
+  const line = env.getTemplate(ENTRY.line, true);
+  const note = env.getTemplate(ENTRY.note, true);
+  const handover = env.getTemplate(ENTRY.handover, true);
+  const flagMessage = new nunjucks.Template(FLAG_MESSAGE_SOURCE, env, 'flag-message', true);
 
   return {
-    engine: entries.engine,
     render(findings, renderOptions = {}) {
       if (!isFindings(findings))
         throw new TypeError(
@@ -204,11 +143,11 @@ export function createNoteRenderer(
       if (format !== 'text' && format !== 'markdown')
         throw new TypeError(`Unknown note format "${String(format)}": use "text" or "markdown"`);
       const v = buildView(findings, format);
-      const oneLine = paragraph(entries.line({ v }));
+      const oneLine = paragraph(line.render({ v }));
       return {
         line: oneLine,
-        text: tidy(entries.note({ v, line: oneLine })),
-        handover: tidy(entries.handover({ v })),
+        text: tidy(note.render({ v, line: oneLine })),
+        handover: tidy(handover.render({ v })),
         format,
       };
     },
@@ -216,58 +155,7 @@ export function createNoteRenderer(
       if (!isFindings(findings))
         throw new TypeError('flagMessage() needs the findings the flag came from');
       const view = flagView(flag, findings, formatter(findings.units));
-      return paragraph(entries.flagMessage({ flag: view, v: { md: false } }));
+      return paragraph(flagMessage.render({ flag: view, v: { md: false } }));
     },
   };
-}
-
-type Entry = (data: Record<string, unknown>) => string;
-interface Entries {
-  engine: 'compiled' | 'nunjucks';
-  line: Entry;
-  note: Entry;
-  handover: Entry;
-  flagMessage: Entry;
-}
-
-/** nunjucks' own runtime: the reference the compiled templates are tested against, and the fallback. */
-function nunjucksEntries(env: nunjucks.Environment, names: Iterable<string>): Entries {
-  for (const name of names) env.getTemplate(name, true);
-  const line = env.getTemplate(ENTRY.line, true);
-  const note = env.getTemplate(ENTRY.note, true);
-  const handover = env.getTemplate(ENTRY.handover, true);
-  const flagMessage = new nunjucks.Template(FLAG_MESSAGE_SOURCE, env, 'flag-message', true);
-  return {
-    engine: 'nunjucks',
-    line: (d) => line.render(d),
-    note: (d) => note.render(d),
-    handover: (d) => handover.render(d),
-    flagMessage: (d) => flagMessage.render(d),
-  };
-}
-
-/**
- * The same templates compiled to functions (compile.ts), every file up front so that nothing is compiled during
- * a request. A department template using something the compiler does not handle keeps the whole renderer on nunjucks.
- */
-function compiledEntries(
-  env: nunjucks.Environment,
-  names: Iterable<string>,
-  engine: 'compiled' | 'nunjucks',
-): Entries | null {
-  if (engine === 'nunjucks') return null;
-  try {
-    const compiled = createCompiledTemplates(env);
-    for (const name of names) compiled.get(name);
-    return {
-      engine: 'compiled',
-      line: compiled.entry(compiled.get(ENTRY.line)),
-      note: compiled.entry(compiled.get(ENTRY.note)),
-      handover: compiled.entry(compiled.get(ENTRY.handover)),
-      flagMessage: compiled.entry(compiled.fromString('flag-message', FLAG_MESSAGE_SOURCE)),
-    };
-  } catch (error) {
-    if (error instanceof Unsupported) return null;
-    throw error;
-  }
 }

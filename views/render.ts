@@ -12,7 +12,6 @@ import {
 } from '../calc/index.ts';
 import { GAS_RANGES, MAX_PREVIOUS_GASES } from '../calc/schema.ts';
 import type { NoteRenderer } from '../templates/index.ts';
-import { createCompiledTemplates, Unsupported } from '../templates/compile.ts';
 import {
   STEPS,
   formValue,
@@ -46,27 +45,10 @@ const env = new nunjucks.Environment(new nunjucks.FileSystemLoader(VIEWS_DIR), {
   lstripBlocks: true,
 });
 
-/**
- * The page's templates compiled to functions (templates/compile.ts), all of them when the module loads; nunjucks
- * itself renders them if the compiler cannot take one. The tests render with both and compare.
- */
-const compiledViews = (() => {
-  try {
-    const views = createCompiledTemplates(env);
-    for (const name of ['page.njk', 'fragment.njk', 'preview.njk', 'problem.njk']) views.get(name);
-    return views;
-  } catch (error) {
-    if (error instanceof Unsupported) return null;
-    throw error;
-  }
-})();
-
-export type ViewEngine = 'compiled' | 'nunjucks';
-export const VIEW_ENGINE: ViewEngine = compiledViews ? 'compiled' : 'nunjucks';
-const render = (name: string, data: Record<string, unknown>, engine: ViewEngine) =>
-  engine === 'compiled' && compiledViews
-    ? compiledViews.render(name, data)
-    : env.render(name, data);
+// every page template is read and compiled once, here, when the module loads; a render reads no file
+for (const name of ['page.njk', 'fragment.njk', 'preview.njk', 'problem.njk'])
+  env.getTemplate(name, true);
+const render = (name: string, data: Record<string, unknown>) => env.render(name, data);
 
 export interface RenderDeps {
   renderer: NoteRenderer;
@@ -436,15 +418,8 @@ export function stateFields(state: FlowState) {
 
 export type FlowView = ReturnType<typeof flowView>;
 
-export const renderPage = (view: FlowView, engine = VIEW_ENGINE): string =>
-  render('page.njk', { view }, engine);
-export const renderFragment = (view: FlowView, engine = VIEW_ENGINE): string =>
-  render('fragment.njk', { view }, engine);
-export const renderPreview = (html: string, engine = VIEW_ENGINE): string =>
-  render('preview.njk', { html }, engine);
-export const renderProblem = (message: string, fragment = false, engine = VIEW_ENGINE): string =>
-  render(
-    'problem.njk',
-    { message, fragment, view: { title: 'Could not go on · Gasline' } },
-    engine,
-  );
+export const renderPage = (view: FlowView): string => render('page.njk', { view });
+export const renderFragment = (view: FlowView): string => render('fragment.njk', { view });
+export const renderPreview = (html: string): string => render('preview.njk', { html });
+export const renderProblem = (message: string, fragment = false): string =>
+  render('problem.njk', { message, fragment, view: { title: 'Could not go on · Gasline' } });

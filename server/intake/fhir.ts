@@ -492,7 +492,7 @@ function unitOf(
     const meant = Object.keys(accepted).find(
       (k) =>
         k.toLowerCase() === code.toLowerCase() ||
-        k.replace(/[\[\]]/g, '').toLowerCase() === code.toLowerCase(),
+        k.replace(/[[\]]/g, '').toLowerCase() === code.toLowerCase(),
     );
     const hint = meant ? ` UCUM writes "${meant}"; send the value with that code.` : '';
     result.errors.push({

@@ -357,7 +357,7 @@ function readQualifiers(line: string, from: number): Qualifiers {
       q.end += at[0].length;
       continue;
     }
-    const m = /^\s*[(\[]([^()\[\]]{0,30})[)\]]/.exec(rest);
+    const m = /^\s*[([]([^()[\]]{0,30})[)\]]/.exec(rest);
     if (!m) break;
     const content = m[1]!.trim();
     const temp = /^(\d+(?:[.,]\d+)?)\s*°?\s*C?$/i.exec(content);
@@ -385,7 +385,7 @@ type SegmentValue =
   | { kind: 'question'; reason: string; value?: number };
 
 const FLAG_TOKENS =
-  /^(?:H|L|HH|LL|A|N|C|c|\*+|!+|↑+|↓+|high|low|crit(?:ical)?|abn(?:ormal)?|normal|calc(?:ulated)?\.?|est(?:imated)?\.?|meas(?:ured)?\.?|ref(?:erence)?\.?|range|ref\.?\s*range|n|r|flag|result|value|units?|[:=|;,.\-\/])$/i;
+  /^(?:H|L|HH|LL|A|N|C|c|\*+|!+|↑+|↓+|high|low|crit(?:ical)?|abn(?:ormal)?|normal|calc(?:ulated)?\.?|est(?:imated)?\.?|meas(?:ured)?\.?|ref(?:erence)?\.?|range|ref\.?\s*range|n|r|flag|result|value|units?|[:=|;,.\-/])$/i;
 const RANGE = String.raw`[-+]?${NUM}(?:-|\s+-\s+|\s+to\s+)[-+]?${NUM}`;
 
 /** The text after a label (and its qualifiers) up to the next label. */
@@ -408,7 +408,7 @@ function readSegment(segment: string, qualifierUnit: UnitToken | null): SegmentV
       s = s.slice(specimen[0].length);
       continue;
     }
-    const group = /^[(\[]([^()\[\]]{0,40})[)\]]/.exec(s);
+    const group = /^[([]([^()[\]]{0,40})[)\]]/.exec(s);
     if (group) {
       const u = unitAt(group[1]!.trim());
       if (u && u.length === group[1]!.trim().length && !unit) unit = u.unit;
@@ -459,17 +459,17 @@ function readSegment(segment: string, qualifierUnit: UnitToken | null): SegmentV
   }
   // after the value: flags, reference ranges, comments in brackets, a unit in a later column
   let leftover = rest;
-  const groups = leftover.match(/[(\[][^()\[\]]{0,60}[)\]]/g) ?? [];
+  const groups = leftover.match(/[([][^()[\]]{0,60}[)\]]/g) ?? [];
   for (const g of groups) {
     const inner = g.slice(1, -1).trim();
     const u = unitAt(inner);
     if (u && u.length === inner.length && !unit) unit = u.unit;
   }
   leftover = leftover
-    .replace(/[(\[][^()\[\]]{0,60}[)\]]/g, ' ')
+    .replace(/[([][^()[\]]{0,60}[)\]]/g, ' ')
     .replace(new RegExp(RANGE, 'g'), ' ')
     .replace(new RegExp(`[<>]=?\\s*[-+]?${NUM}`, 'g'), ' ')
-    .replace(/\d{1,2}[\/.-]\d{1,2}[\/.-]\d{2,4}/g, ' ')
+    .replace(/\d{1,2}[/.-]\d{1,2}[/.-]\d{2,4}/g, ' ')
     .replace(/\d{1,2}:\d{2}(?::\d{2})?/g, ' ')
     .replace(new RegExp(`${NUM}\\s*°\\s*[CF]`, 'gi'), ' ');
   let conflict: UnitToken | null = null;
@@ -525,7 +525,7 @@ function shorthandRuns(line: string): ShorthandRun[] {
     const ph = Number(parts[0]!.replace(',', '.'));
     if (!PH_LIKE.test(parts[0]!) || ph < GAS_RANGES.ph.min || ph > GAS_RANGES.ph.max) continue;
     let end = m.index + m[0].length;
-    const u = /^\s*[(\[]?\s*(kpa|mm\s?hg|torr)\s*[)\]]?(?![a-z])/i.exec(line.slice(end));
+    const u = /^\s*[([]?\s*(kpa|mm\s?hg|torr)\s*[)\]]?(?![a-z])/i.exec(line.slice(end));
     const unit: PressureUnit | null = u ? (/kpa/i.test(u[1]!) ? 'kPa' : 'mmHg') : null;
     if (u) end += u[0].length;
     runs.push({ start: m.index, end, parts, unit });

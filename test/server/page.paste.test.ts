@@ -136,7 +136,7 @@ describe('a printout', () => {
       '<li><code>Std HCO3    15.2  mmol/L</code>: standard bicarbonate is not the actual HCO3</li>',
     );
     expect(html).toMatch(
-      /<summary>Lines that gave nothing \(2\)<\/summary>[\s\S]*?<code>POINT-OF-CARE BLOOD GAS        Ward 7B<\/code>[\s\S]*?<code>Operator 117<\/code>/,
+      /<summary>Lines that gave nothing \(2\)<\/summary>[\s\S]*?<code>POINT-OF-CARE BLOOD GAS {8}Ward 7B<\/code>[\s\S]*?<code>Operator 117<\/code>/,
     );
     expect(html).toContain('Not on the text: Albumin.');
     expect(html).not.toContain('questions before');

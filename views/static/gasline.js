@@ -1,7 +1,6 @@
 // Small enhancements on top of plain forms; the page works without this file.
 // No state lives here: the case is in the forms, and htmx swaps the server's HTML.
-(function () {
-  'use strict';
+(() => {
   var root = document.documentElement;
   root.classList.add('js');
 
@@ -10,7 +9,7 @@
     if (!region) return;
     // clear first so that the same words are read again
     region.textContent = '';
-    window.setTimeout(function () {
+    window.setTimeout(() => {
       region.textContent = text;
     }, 50);
   }
@@ -28,7 +27,7 @@
       announce(
         ok ? what + ' copied to the clipboard.' : what + ' selected: press Ctrl+C (Cmd+C) to copy.',
       );
-      window.setTimeout(function () {
+      window.setTimeout(() => {
         button.textContent = label;
         button.classList.remove('is-copied');
       }, 2500);
@@ -45,7 +44,7 @@
       done(ok);
     }
     if (navigator.clipboard && window.isSecureContext) {
-      navigator.clipboard.writeText(area.value).then(function () {
+      navigator.clipboard.writeText(area.value).then(() => {
         done(true);
       }, fallback);
     } else {
@@ -53,13 +52,13 @@
     }
   }
 
-  document.addEventListener('click', function (event) {
+  document.addEventListener('click', (event) => {
     var target = event.target instanceof Element ? event.target.closest('[data-copy]') : null;
     if (target) copyFrom(target);
   });
 
   // Enter moves on from a choice or a unit menu too, not only from a text field.
-  document.addEventListener('keydown', function (event) {
+  document.addEventListener('keydown', (event) => {
     if (
       event.key !== 'Enter' ||
       event.shiftKey ||
@@ -78,7 +77,7 @@
   });
 
   // Ctrl+Enter (Cmd+Enter) in the paste box reads the text; Enter alone is a new line there.
-  document.addEventListener('keydown', function (event) {
+  document.addEventListener('keydown', (event) => {
     if (event.key !== 'Enter' || !(event.ctrlKey || event.metaKey) || event.isComposing) return;
     var el = event.target;
     if (
@@ -93,26 +92,26 @@
   });
 
   // The pressure unit shown beside PaCO2 and PaO2 follows the unit chosen above them.
-  document.addEventListener('change', function (event) {
+  document.addEventListener('change', (event) => {
     var el = event.target;
     if (!(el instanceof HTMLInputElement) || el.name !== 'units.pressure') return;
     var form = el.form;
     if (!form) return;
-    form.querySelectorAll('[data-unit-for="units.pressure"]').forEach(function (span) {
+    form.querySelectorAll('[data-unit-for="units.pressure"]').forEach((span) => {
       span.textContent = el.value;
     });
   });
 
   // Print what is in the text areas now, edits included.
-  window.addEventListener('beforeprint', function () {
-    document.querySelectorAll('[data-print-of]').forEach(function (pre) {
+  window.addEventListener('beforeprint', () => {
+    document.querySelectorAll('[data-print-of]').forEach((pre) => {
       var area = document.getElementById(pre.getAttribute('data-print-of'));
       if (area) pre.textContent = area.value;
     });
   });
 
   // A request that never reached the server leaves the page as it was: say so.
-  document.addEventListener('htmx:error', function () {
+  document.addEventListener('htmx:error', () => {
     announce('The server did not answer. Your answers are still on the page: try again.');
     var flow = document.getElementById('flow');
     if (flow && !document.getElementById('offline-note')) {
