@@ -356,7 +356,7 @@ async function draftRoute(base: string): Promise<Route> {
     'hx-request': 'true',
     'sec-fetch-site': 'same-origin',
   };
-  let html = await (await fetch(base + '/')).text();
+  let html = await (await fetch(`${base}/`)).text();
   const answer = async (step: string, fields: Record<string, string>) => {
     const body = new URLSearchParams({
       case: hidden(html, 'case'),
@@ -368,7 +368,7 @@ async function draftRoute(base: string): Promise<Route> {
     });
     return {
       body: body.toString(),
-      html: await (await fetch(base + '/step', { method: 'POST', headers: form, body })).text(),
+      html: await (await fetch(`${base}/step`, { method: 'POST', headers: form, body })).text(),
     };
   };
   html = (await answer('sample', { sample: 'arterial' })).html;
@@ -423,7 +423,7 @@ async function draftRoute(base: string): Promise<Route> {
 }
 
 async function pageWeight(base: string): Promise<{ bytes: number; gzip: number } | null> {
-  const res = await fetch(base + '/');
+  const res = await fetch(`${base}/`);
   if (!res.ok || !(res.headers.get('content-type') ?? '').includes('html')) return null;
   const html = await res.text();
   const assets = [...html.matchAll(/(?:src|href)="(\/[^"]+)"/g)]

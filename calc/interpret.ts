@@ -99,7 +99,7 @@ function computedGasErrors(c: CanonicalCase): FieldError[] {
     }
   };
   check(c.gas, 'gas');
-  c.previous.forEach((p, i) => check(p.gas, `previous.${i}.gas`));
+  for (const [i, p] of c.previous.entries()) check(p.gas, `previous.${i}.gas`);
   return errors;
 }
 
@@ -415,9 +415,10 @@ class Reading implements Findings {
     this.#thunks = thunks;
   }
   get explain(): Record<string, Explanation> {
-    return (this.#built ??= Object.fromEntries(
+    this.#built ??= Object.fromEntries(
       Object.entries(this.#thunks).map(([key, thunk]) => [key, thunk()]),
-    ));
+    );
+    return this.#built;
   }
   toJSON() {
     return { ...this, explain: this.explain };

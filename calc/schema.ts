@@ -222,7 +222,7 @@ export function rangeText(range: Range, units: Units): string {
       kind && shown !== v ? (whole ? 0 : Math.abs(shown) < 10 ? 2 : 1) : range.decimals;
     return shown.toFixed(decimals);
   };
-  return `${show(range.min)}-${show(range.max)}${unit ? ' ' + unit : ''}`;
+  return `${show(range.min)}-${show(range.max)}${unit ? ` ${unit}` : ''}`;
 }
 
 function checkRange(
@@ -240,7 +240,7 @@ function checkRange(
     const hint = range.kind === 'pressure' ? pressureHint(value, units) : '';
     errors.push({
       path,
-      message: `${range.label} ${value}${unit ? ' ' + unit : ''} is outside ${rangeText(range, units)}: check the value${hint}`,
+      message: `${range.label} ${value}${unit ? ` ${unit}` : ''} is outside ${rangeText(range, units)}: check the value${hint}`,
     });
   }
 }
@@ -256,7 +256,10 @@ const ENTRIES = new WeakMap<Record<string, Range>, [string, Range][]>();
 /** The entries of a ranges table, listed once. */
 function entriesOf(ranges: Record<string, Range>): [string, Range][] {
   let entries = ENTRIES.get(ranges);
-  if (!entries) ENTRIES.set(ranges, (entries = Object.entries(ranges)));
+  if (!entries) {
+    entries = Object.entries(ranges);
+    ENTRIES.set(ranges, entries);
+  }
   return entries;
 }
 

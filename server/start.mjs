@@ -49,7 +49,7 @@ if (!existsSync(stamp) || statSync(stamp).mtimeMs < sourceTime) {
     { stdio: 'inherit' },
   );
   for (const dir of ['templates', 'views']) copyAssets(join(root, dir));
-  writeFileSync(stamp, new Date().toISOString() + '\n');
+  writeFileSync(stamp, `${new Date().toISOString()}\n`);
   console.log(`Gasline: compiled in ${(performance.now() - started).toFixed(0)} ms`);
 }
 

@@ -179,7 +179,7 @@ const BUILDERS: Record<FlagCode, Builder> = {
     gap: fmt.mosm(num(x, 'osmolarGap')),
     limit: fmt.mosm(R.OSMOLAR_GAP_RAISED),
   }),
-  lactate_raised: (x, f, fmt) => {
+  lactate_raised: (x, _f, fmt) => {
     const band = str(x, 'band');
     return {
       lactate: fmt.mmol(num(x, 'lactate')),

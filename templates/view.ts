@@ -704,7 +704,7 @@ export function buildView(f: Findings, format: NoteFormat): NoteView {
 function serialView(f: Findings, fmt: Formatter) {
   const serial = f.serial;
   const v = f.case.ventilator;
-  if (!serial || !serial.ventilatorChanged || !v) return null;
+  if (!serial?.ventilatorChanged || !v) return null;
   const last = serial.last;
   const p = serial.prediction;
   return {

@@ -247,7 +247,7 @@ export function unitQuestion(
   options?: InterpretOptions,
 ): FieldError | null {
   const f = findingsOf(answers, options);
-  if (!f || !f.flags.some((x) => x.code === 'unit_ambiguous')) return null;
+  if (!f?.flags.some((x) => x.code === 'unit_ambiguous')) return null;
   const unit = String(getPath(answers, 'units.pressure') ?? 'mmHg');
   if (form.unitAsked === unit) return null;
   const other = unit === 'mmHg' ? 'kPa' : 'mmHg';

@@ -90,7 +90,7 @@ export function clampToWindow(p: PhHco3): Clamped {
 const phOf = (pco2: number, hco3: number): number =>
   phFromHydrogenIon(hendersonHydrogenIon(pco2, hco3));
 const hco3Of = (ph: number, pco2: number): number => hendersonBicarbonate(hydrogenIon(ph), pco2);
-const pco2Of = (ph: number, hco3: number): number => hendersonPco2(hydrogenIon(ph), hco3);
+const _pco2Of = (ph: number, hco3: number): number => hendersonPco2(hydrogenIon(ph), hco3);
 
 const ISOPLETH_STEPS = 40;
 
@@ -815,9 +815,7 @@ function referenceMark(f: Frame, r: ReferencePoint): string {
 const radius = (g: PlottedGas) => (g.current ? 7 : 4.5);
 
 function path(placed: Placed[], id: (s: string) => string): string {
-  const s: string[] = [
-    '<g class="gl-gas-path" fill="none" stroke="' + INK + '" stroke-width="1.5">',
-  ];
+  const s: string[] = [`<g class="gl-gas-path" fill="none" stroke="${INK}" stroke-width="1.5">`];
   for (let i = 1; i < placed.length; i++) {
     const a = placed[i - 1] as Placed,
       b = placed[i] as Placed;

@@ -223,7 +223,7 @@ export function intakeOf(raw: RawIntake, text: string): Intake {
     });
   for (const s of r.superseded) {
     out.setAside.push({
-      text: `${labelOf(s.path, sample)} ${s.value}${s.unit ? ' ' + s.unit : ''}${s.effective ? ` (${s.effective})` : ''}`,
+      text: `${labelOf(s.path, sample)} ${s.value}${s.unit ? ` ${s.unit}` : ''}${s.effective ? ` (${s.effective})` : ''}`,
       reason: 'an older result; the latest one is read',
     });
   }
@@ -328,7 +328,7 @@ export function controlOf(q: Question): Control {
     const unit = q.path === 'oxygen.fio2' ? '' : (range?.unit ?? '');
     return {
       kind: 'choice',
-      options: options.map((o) => ({ value: o, label: `${o}${unit ? ' ' + unit : ''}` })),
+      options: options.map((o) => ({ value: o, label: `${o}${unit ? ` ${unit}` : ''}` })),
       leaveOut: true,
       effect: 'number',
     };

@@ -197,7 +197,7 @@ const shown = (value: number) => String(Math.round(value * 100) / 100);
 
 /** A value with its unit; a pressure also in kPa when that is the clinician's unit. */
 function valueText(value: number, unit: string, units: U.Units): string {
-  const main = `${shown(value)}${unit ? ' ' + unit : ''}`;
+  const main = `${shown(value)}${unit ? ` ${unit}` : ''}`;
   if (unit === 'mmHg' && units.pressure === 'kPa')
     return `${main} (${U.fromCanonical('pressure', value, units).toFixed(1)} kPa)`;
   return main;
@@ -397,7 +397,7 @@ function earlierView(g: Json, index: number, count: number, ctx: StepContext) {
         ? U.unitLabel(range.kind, ctx.units)
         : range.unit
       : (EARLIER_UNITS[path] ?? '');
-    phrases.push(`${label} ${value}${unit ? (unit === '/min' ? unit : ' ' + unit) : ''}`);
+    phrases.push(`${label} ${value}${unit ? (unit === '/min' ? unit : ` ${unit}`) : ''}`);
   }
   const when = [typeof g.takenAt === 'string' ? g.takenAt.replace('T', ' ') : null, g.label]
     .filter((x): x is string => typeof x === 'string' && x.trim() !== '')

@@ -625,7 +625,7 @@ export function summary(
       out.push(`${what === 'BUN' ? 'BUN' : 'Urea'} ${value} ${u}`);
       continue;
     }
-    out.push(`${field.label} ${value}${unit ? ' ' + unit : ''}`);
+    out.push(`${field.label} ${value}${unit ? ` ${unit}` : ''}`);
   }
   return out;
 }

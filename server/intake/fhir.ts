@@ -550,7 +550,7 @@ function choose(state: State): void {
       display: item.display,
       source: item.source,
       effective: item.effective,
-      sourceText: `${item.entry.code} ${item.display}: ${item.value}${item.unit.label ? ' ' + item.unit.label : ''}${item.effective ? ` (${item.effective})` : ''}`,
+      sourceText: `${item.entry.code} ${item.display}: ${item.value}${item.unit.label ? ` ${item.unit.label}` : ''}${item.effective ? ` (${item.effective})` : ''}`,
     });
   }
   // the schema checks the draft like any case; its errors point back to the Observation

@@ -70,7 +70,8 @@ type ValueGroup = 'gas' | 'chemistry' | 'oxygen' | 'context';
 export function setCaseValue(c: IntakeCase, path: CasePath, value: number): void {
   const [group, key] = path.split('.') as [ValueGroup, string];
   const groups = c as unknown as Record<ValueGroup, Record<string, number> | undefined>;
-  (groups[group] ??= {})[key] = value;
+  groups[group] ??= {};
+  groups[group][key] = value;
 }
 
 export function getCaseValue(c: IntakeCase, path: CasePath): number | undefined {

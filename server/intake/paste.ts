@@ -1083,7 +1083,7 @@ function resolve(col: Collector, result: PasteResult): void {
       const shown = [...distinct.values()].slice(0, 6);
       ask({
         path,
-        reason: `${LABEL_OF[path]} is written more than once with different values (${shown.map((x) => `${x.value}${x.unit ? ' ' + x.unit : ''}`).join(', ')}${distinct.size > shown.length ? ', ...' : ''}): which one is this sample?`,
+        reason: `${LABEL_OF[path]} is written more than once with different values (${shown.map((x) => `${x.value}${x.unit ? ` ${x.unit}` : ''}`).join(', ')}${distinct.size > shown.length ? ', ...' : ''}): which one is this sample?`,
         options: [...values].slice(0, 6).map(String),
         sourceText: top
           .slice(0, 6)
@@ -1121,11 +1121,11 @@ type Fill = (
 const outside = (path: CasePath, cand: Candidate, unit: string): Question => {
   const range = RANGE_OF[path];
   const shown = range
-    ? ` (plausible range ${range.min}-${range.max}${range.unit ? ' ' + range.unit : ''})`
+    ? ` (plausible range ${range.min}-${range.max}${range.unit ? ` ${range.unit}` : ''})`
     : '';
   return {
     path,
-    reason: `${LABEL_OF[path]} ${cand.value}${unit ? ' ' + unit : ''} is not plausible${shown}: check the value and its unit`,
+    reason: `${LABEL_OF[path]} ${cand.value}${unit ? ` ${unit}` : ''} is not plausible${shown}: check the value and its unit`,
     value: cand.value,
     sourceText: cand.sourceText,
   };
@@ -1141,7 +1141,7 @@ const wrongUnit = (path: CasePath, cand: Candidate, expected: string): Question 
 /** PaCO2 and PaO2 share the pressure unit of the case: decided together. */
 function decidePressures(
   chosen: Map<CasePath, Candidate>,
-  result: PasteResult,
+  _result: PasteResult,
   ask: Ask,
   fill: Fill,
 ): void {

@@ -78,8 +78,9 @@ export function numbersIn(
   out: { path: string; value: number }[] = [],
 ): { path: string; value: number }[] {
   if (typeof value === 'number') out.push({ path, value });
-  else if (Array.isArray(value)) value.forEach((v, i) => numbersIn(v, `${path}[${i}]`, out));
-  else if (value && typeof value === 'object') {
+  else if (Array.isArray(value)) {
+    for (const [i, v] of value.entries()) numbersIn(v, `${path}[${i}]`, out);
+  } else if (value && typeof value === 'object') {
     // a reading keeps its explanations behind a getter; its toJSON() is what goes over the wire, explanations included
     const plain =
       typeof (value as { toJSON?: unknown }).toJSON === 'function'

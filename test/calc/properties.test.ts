@@ -79,7 +79,8 @@ describe('for any in-range case, in either unit system', () => {
       fc.property(anyCase, (c) => {
         const result = interpret(c);
         if (!result.ok) return;
-        result.disorders.forEach((d, i) => expect(d.role).toBe(i === 0 ? 'primary' : 'added'));
+        for (const [i, d] of result.disorders.entries())
+          expect(d.role).toBe(i === 0 ? 'primary' : 'added');
         const keys = result.disorders.map((d) => `${d.code}/${d.detail}`);
         expect(new Set(keys).size).toBe(keys.length);
         // the reference point is a real gas: positive PaCO2 and HCO3

@@ -84,7 +84,7 @@ describe.skipIf(!run)('pasting results and following up, in Chromium', () => {
     await expect.poll(() => focusedId(page)).toBe('h-paste');
     const rows = page.locator('.read-table tbody tr');
     expect(await rows.count()).toBe(11);
-    expect(await rows.filter({ hasText: 'PaCO2' }).innerText()).toMatch(
+    expect(await rows.filter({ hasText: 'PaCO2' }).textContent()).toMatch(
       /PaCO2\s+29 mmHg\s+pCO2\s+29\s+mmHg/,
     );
     expect(await page.getByText('standard bicarbonate is not the actual HCO3').isVisible()).toBe(
@@ -138,7 +138,7 @@ describe.skipIf(!run)('pasting results and following up, in Chromium', () => {
     expect(mapBox!.x).toBeGreaterThan(draftBox!.x + draftBox!.width - 1);
     expect(await map.locator('.gl-gas-marker').count()).toBe(1);
     await page.getByText('The map in words').click();
-    expect(await map.locator('.map-lines').innerText()).toMatch(
+    expect(await map.locator('.map-lines').textContent()).toMatch(
       /Current gas \(1 of 1\): pH 7\.26, PaCO2 29 mmHg, HCO3 13\.6 mmol\/L/,
     );
     await s.axe('draft with map');
@@ -171,7 +171,7 @@ describe.skipIf(!run)('pasting results and following up, in Chromium', () => {
     await waitOpen(page, 'paste');
     expect(await page.locator('.step--paste').textContent()).toContain('Read from FHIR JSON.');
     expect(await page.locator('.read-table tbody tr').count()).toBe(4);
-    const aside = await page.locator('.aside-list').first().innerText();
+    const aside = await page.locator('.aside-list').first().textContent();
     expect(aside).toContain('33254-4');
     expect(aside).toContain(
       'PaCO2 58 mmHg (2026-03-02T01:00:00Z): an older result; the latest one is read',
@@ -312,7 +312,7 @@ describe.skipIf(!run)('pasting results and following up, in Chromium', () => {
     expect(await map.locator('.gl-gas-marker').count()).toBe(2);
     expect(await map.locator('.gl-gas-step').count()).toBe(1);
     await page.getByText('The map in words').click();
-    expect(await map.locator('.map-lines').innerText()).toContain(
+    expect(await map.locator('.map-lines').textContent()).toContain(
       'Gas 1 of 2, before RR change: pH 7.22, PaCO2 61 mmHg',
     );
     await s.axe('draft with trend');

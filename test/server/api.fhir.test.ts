@@ -112,7 +112,7 @@ describe('FHIR R4 through the API', () => {
   });
 
   it('hostile shapes are answered, never a 500 (found by the HTTP fuzz)', async () => {
-    const deep = '['.repeat(12000) + '1' + ']'.repeat(12000);
+    const deep = `${'['.repeat(12000)}1${']'.repeat(12000)}`;
     for (const payload of [
       '{"resourceType":{"toString":1}}',
       '{"resourceType":"Observation","id":{"valueOf":1},"code":{"coding":[{"system":"http://loinc.org","code":"2744-1"}]},"valueQuantity":{"comparator":{"toString":1},"value":7.3}}',

@@ -7,17 +7,7 @@ import { createApp } from '../../server/app.ts';
 import { interpret } from '../../calc/index.ts';
 import { MAX_PREVIOUS_GASES } from '../../calc/schema.ts';
 import { createNoteRenderer } from '../../templates/index.ts';
-import {
-  caseOf,
-  hidden,
-  openId,
-  openStep,
-  stateOf,
-  textareaOf,
-  unescape,
-  poster,
-  type Fields,
-} from './pageHtml.ts';
+import { caseOf, openId, openStep, stateOf, textareaOf, poster, type Fields } from './pageHtml.ts';
 
 const app = createApp();
 const renderer = createNoteRenderer();

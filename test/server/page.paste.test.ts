@@ -13,7 +13,7 @@ import {
   openStep,
   stateOf,
   textareaOf,
-  unescape,
+  unescapeHtml,
   poster,
   type Fields,
 } from './pageHtml.ts';
@@ -23,7 +23,7 @@ const app = createApp();
 const renderer = createNoteRenderer();
 
 const announced = (html: string) =>
-  unescape(
+  unescapeHtml(
     html.match(
       /<hx-partial hx-target="#announce" hx-swap="innerHTML">([\s\S]*?)<\/hx-partial>/,
     )?.[1] ?? '',
@@ -33,7 +33,7 @@ function readRows(html: string): string[][] {
   const body =
     html.match(/<table class="read-table">[\s\S]*?<tbody>([\s\S]*?)<\/tbody>/)?.[1] ?? '';
   const text = (cell: string) =>
-    unescape(
+    unescapeHtml(
       cell
         .replace(/<[^>]+>/g, ' ')
         .replace(/\s+/g, ' ')
@@ -42,7 +42,7 @@ function readRows(html: string): string[][] {
   return [...body.matchAll(/<tr>([\s\S]*?)<\/tr>/g)].map((row) =>
     [...row[1]!.matchAll(/<t[hd][^>]*>([\s\S]*?)<\/t[hd]>/g)].map((cell) => {
       const code = cell[1]!.match(/^<code>([\s\S]*)<\/code>$/);
-      return code ? unescape(code[1]!) : text(cell[1]!);
+      return code ? unescapeHtml(code[1]!) : text(cell[1]!);
     }),
   );
 }

@@ -9,13 +9,11 @@ import { interpret, parseCase } from '../../calc/index.ts';
 import { createNoteRenderer } from '../../templates/index.ts';
 import {
   caseOf,
-  hidden,
   openId,
   openStep,
   stateOf,
   textareaOf,
-  unescape,
-  type State,
+  unescapeHtml,
   poster,
   type Fields,
 } from './pageHtml.ts';
@@ -30,7 +28,7 @@ const answer = (html: string, step: string, fields: Fields, htmx = true) =>
   post('/step', { ...stateOf(html), step, action: 'next', ...fields }, htmx);
 
 const fieldError = (html: string, id: string) =>
-  unescape(
+  unescapeHtml(
     html.match(
       new RegExp(
         `<p class="error" id="${id}-error"><span class="visually-hidden">Error: </span>([^<]*)</p>`,

@@ -1,7 +1,7 @@
 // Reading the page's HTML in tests: the hidden state, the open step, a text area.
 import type { Hono } from 'hono';
 
-export const unescape = (s: string) =>
+export const unescapeHtml = (s: string) =>
   s
     .replace(/&quot;/g, '"')
     .replace(/&#39;/g, "'")
@@ -12,7 +12,7 @@ export const unescape = (s: string) =>
 export function hidden(html: string, name: string): string {
   const m = html.match(new RegExp(`<input type="hidden" name="${name}" value="([^"]*)"`));
   if (!m) throw new Error(`no hidden ${name} in the page`);
-  return unescape(m[1]!);
+  return unescapeHtml(m[1]!);
 }
 
 export type State = { case: string; done: string; format: string };
@@ -30,7 +30,9 @@ export const openStep = (html: string) =>
     /<li class="entry entry--open" id="step-([a-z]+)">([\s\S]*?)<\/li>\s*(?=<li|<\/ol>)/,
   )?.[0] ?? '';
 export const textareaOf = (html: string, id: string) =>
-  unescape(html.match(new RegExp(`<textarea id="${id}"[^>]*>([\\s\\S]*?)</textarea>`))?.[1] ?? '');
+  unescapeHtml(
+    html.match(new RegExp(`<textarea id="${id}"[^>]*>([\\s\\S]*?)</textarea>`))?.[1] ?? '',
+  );
 
 export type Fields = Record<string, string>;
 

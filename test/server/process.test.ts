@@ -83,7 +83,7 @@ describe('binding', () => {
     const r = await start('server/main.ts', {});
     expect(r.out()).toMatch(/listening on http:\/\/127\.0\.0\.1:\d+/);
     expect(r.err()).not.toMatch(/WARNING/);
-    expect((await fetch(r.base + '/healthz')).status).toBe(200);
+    expect((await fetch(`${r.base}/healthz`)).status).toBe(200);
     await stop(r);
   });
 
@@ -102,7 +102,7 @@ describe('several processes (npm run start:cluster)', () => {
     const r = await start('server/cluster.ts', { WORKERS: '2' }, 2);
     expect(r.out()).toMatch(/starting 2 worker processes/);
     const answers = await Promise.all(
-      Array.from({ length: 8 }, () => fetch(r.base + '/healthz').then((res) => res.status)),
+      Array.from({ length: 8 }, () => fetch(`${r.base}/healthz`).then((res) => res.status)),
     );
     expect(answers.every((s) => s === 200)).toBe(true);
     await stop(r);
@@ -126,26 +126,26 @@ describe('no patient data at rest or in logs', () => {
       chemistry: { na: marker.na, cl: 101 },
       previous: [{ label: marker.label, gas: { ph: 7.2, pco2: 45, hco3: 17 } }],
     };
-    const ok = await fetch(r.base + '/api/interpret', {
+    const ok = await fetch(`${r.base}/api/interpret`, {
       method: 'POST',
       headers: { 'content-type': 'application/json' },
       body: JSON.stringify(body),
     });
     expect(ok.status).toBe(200);
-    const bad = await fetch(r.base + '/api/interpret', {
+    const bad = await fetch(`${r.base}/api/interpret`, {
       method: 'POST',
       headers: { 'content-type': 'application/json' },
       body: JSON.stringify({ gas: { ph: 9.137, pco2: marker.pco2 } }),
     });
     expect(bad.status).toBe(422);
-    const broken = await fetch(r.base + '/api/interpret', {
+    const broken = await fetch(`${r.base}/api/interpret`, {
       method: 'POST',
       headers: { 'content-type': 'application/json' },
       body: `{"gas":{"ph":${marker.ph},`,
     });
     expect(broken.status).toBe(400);
     // the page: a step answered with the same values, and a pasted printout
-    const step = await fetch(r.base + '/step', {
+    const step = await fetch(`${r.base}/step`, {
       method: 'POST',
       headers: { 'content-type': 'application/x-www-form-urlencoded', 'hx-request': 'true' },
       body: new URLSearchParams({
@@ -161,7 +161,7 @@ describe('no patient data at rest or in logs', () => {
       }).toString(),
     });
     expect(step.status).toBeLessThan(500);
-    const paste = await fetch(r.base + '/paste', {
+    const paste = await fetch(`${r.base}/paste`, {
       method: 'POST',
       headers: { 'content-type': 'application/x-www-form-urlencoded' },
       body: new URLSearchParams({
@@ -193,7 +193,7 @@ describe('no patient data at rest or in logs', () => {
       for (const name of entries) {
         if (name === 'node_modules' || name === '.git') continue;
         const path = join(dir, name);
-        let st;
+        let st: ReturnType<typeof statSync>;
         try {
           st = statSync(path);
         } catch {

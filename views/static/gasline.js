@@ -25,7 +25,7 @@
       button.textContent = ok ? 'Copied' : 'Selected: press Ctrl+C';
       button.classList.toggle('is-copied', ok);
       announce(
-        ok ? what + ' copied to the clipboard.' : what + ' selected: press Ctrl+C (Cmd+C) to copy.',
+        ok ? `${what} copied to the clipboard.` : `${what} selected: press Ctrl+C (Cmd+C) to copy.`,
       );
       window.setTimeout(() => {
         button.textContent = label;
@@ -38,7 +38,7 @@
       var ok = false;
       try {
         ok = document.execCommand('copy');
-      } catch (e) {
+      } catch (_e) {
         ok = false;
       }
       done(ok);
@@ -71,7 +71,7 @@
     var el = event.target;
     if (!(el instanceof HTMLInputElement || el instanceof HTMLSelectElement)) return;
     var isChoice = el instanceof HTMLSelectElement || el.type === 'radio' || el.type === 'checkbox';
-    if (!isChoice || !el.form || !el.form.classList.contains('step-form')) return;
+    if (!isChoice || !el.form?.classList.contains('step-form')) return;
     event.preventDefault();
     el.form.requestSubmit();
   });
@@ -115,7 +115,7 @@
     announce('The server did not answer. Your answers are still on the page: try again.');
     var flow = document.getElementById('flow');
     if (flow && !document.getElementById('offline-note')) {
-      var note = document.createElement('p');
+      const note = document.createElement('p');
       note.id = 'offline-note';
       note.className = 'problem-inline';
       note.setAttribute('role', 'alert');

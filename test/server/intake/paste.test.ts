@@ -593,7 +593,7 @@ describe('junk gives no values', () => {
   });
 
   it('refuses a text over the size limit with a question, reading nothing', () => {
-    const r = parsePaste('pH 7.31\n' + 'x'.repeat(100_001));
+    const r = parsePaste(`pH 7.31\n${'x'.repeat(100_001)}`);
     expect(r.case).toEqual({ gas: {} });
     expect(paths(r.questions)).toEqual(['(text)']);
   });
