@@ -1,4 +1,6 @@
-// How a number was reached: formula, inputs and source, so that any figure can be explained.
+// How a number was reached: formula, inputs and source, so that any figure can be explained. A derived value is
+// recorded once, with its explanation; the value reported is rounded as the explanation says, the arithmetic
+// that follows uses the unrounded one.
 import { SOURCES, type SourceKey } from './sources.ts';
 
 export interface Input {
@@ -15,6 +17,16 @@ export interface Explanation {
   formula: string;
   inputs: Input[];
   source: string;
+}
+
+/** How a value was reached, and the decimals it is reported with. */
+export interface How {
+  label: string;
+  unit: string;
+  decimals: number;
+  formula: string;
+  inputs: Input[];
+  source: SourceKey;
 }
 
 export const input = (name: string, value: number, unit: string): Input => ({ name, value, unit });
@@ -39,26 +51,39 @@ const INPUT_DECIMALS: Readonly<Record<string, number>> = {
   years: 1,
 };
 
-export function explanation(
-  key: string,
-  label: string,
-  value: number,
-  unit: string,
-  formula: string,
-  inputs: Input[],
-  source: SourceKey,
-): Explanation {
-  const shown = inputs.map((i) => ({
-    name: i.name,
-    value: round(i.value, INPUT_DECIMALS[i.unit] ?? 3),
-    unit: i.unit,
-  }));
-  return { key, label, value, unit, formula, inputs: shown, source: SOURCES[source] };
+/** A value rounded for reporting (not for further arithmetic). */
+export const round = (value: number, decimals: number): number => {
+  const f = 10 ** decimals;
+  return Math.round(value * f) / f;
+};
+
+export function explanation(key: string, value: number, how: How): Explanation {
+  return {
+    key,
+    label: how.label,
+    value: round(value, how.decimals),
+    unit: how.unit,
+    formula: how.formula,
+    inputs: how.inputs.map((i) => ({ ...i, value: round(i.value, INPUT_DECIMALS[i.unit] ?? 3) })),
+    source: SOURCES[how.source],
+  };
 }
 
-/** A value rounded for reporting (not for further arithmetic). */
-export function round(value: number, decimals: number): number {
-  const f = POWERS_OF_TEN[decimals] ?? 10 ** decimals;
-  return Math.round(value * f) / f;
+/** The derived values of one reading and how each was reached. */
+export interface Ledger<K extends string> {
+  derived: Record<K, unknown>;
+  explain: Record<string, Explanation>;
 }
-const POWERS_OF_TEN = [1, 10, 100, 1000, 10000];
+
+/** Record a derived value with its explanation; returns the unrounded value for the arithmetic that follows. */
+export function record<K extends string>(
+  ledger: Ledger<K>,
+  key: K,
+  value: number,
+  how: How,
+): number {
+  const e = explanation(key, value, how);
+  ledger.derived[key] = e.value;
+  ledger.explain[key] = e;
+  return value;
+}

@@ -13,46 +13,66 @@ import type { Units } from './units.ts';
 
 export type N = number | null;
 
-export interface Derived {
+/** The numbers a reading derives, each reported rounded with its explanation (explain.ts); null when not computable. */
+export const DERIVED_NUMBERS = [
+  'hPlus',
+  'hco3Henderson',
+  'phHendersonHasselbalch',
+  'anionGap',
+  'anionGapCorrected',
+  'deltaRatio',
+  'standardBaseExcess',
+  'sodiumChlorideEffect',
+  'albuminEffect',
+  'unmeasuredIonEffect',
+  'apparentSid',
+  'effectiveSid',
+  'strongIonGap',
+  'calculatedOsmolality',
+  'osmolarGap',
+  'urineAnionGap',
+  'barometricPressure',
+  'alveolarPo2',
+  'aaGradient',
+  'aaGradientExpected',
+  'pfRatio',
+  'sfRatio',
+  'oxygenContent',
+  'predictedBodyWeightKg',
+  'vtPerKgPbw',
+  'drivingPressure',
+  'deadSpaceMl',
+  'minuteVentilation',
+  'alveolarVentilation',
+  'co2Production',
+  'ventilatoryRatio',
+  'targetPco2',
+  'targetPco2Simple',
+  'suggestedRr',
+  'suggestedVt',
+  'suggestedVtPerKgPbw',
+  'predictedPco2',
+] as const;
+export type DerivedNumber = (typeof DERIVED_NUMBERS)[number];
+
+export type Derived = Record<Exclude<DerivedNumber, 'hPlus'>, N> & {
   hPlus: number;
-  hco3Henderson: N;
-  phHendersonHasselbalch: N;
-  anionGap: N;
-  anionGapCorrected: N;
-  deltaRatio: N;
   expectedPco2: Band | null;
   expectedHco3: Band | null;
-  standardBaseExcess: N;
-  sodiumChlorideEffect: N;
-  albuminEffect: N;
-  unmeasuredIonEffect: N;
-  apparentSid: N;
-  effectiveSid: N;
-  strongIonGap: N;
-  calculatedOsmolality: N;
-  osmolarGap: N;
-  urineAnionGap: N;
-  barometricPressure: N;
-  alveolarPo2: N;
-  aaGradient: N;
-  aaGradientExpected: N;
-  pfRatio: N;
-  sfRatio: N;
-  oxygenContent: N;
-  predictedBodyWeightKg: N;
-  vtPerKgPbw: N;
-  drivingPressure: N;
-  deadSpaceMl: N;
-  minuteVentilation: N;
-  alveolarVentilation: N;
-  co2Production: N;
-  ventilatoryRatio: N;
-  targetPco2: N;
-  targetPco2Simple: N;
-  suggestedRr: N;
-  suggestedVt: N;
-  suggestedVtPerKgPbw: N;
-  predictedPco2: N;
+};
+
+export const emptyDerived = (hPlus: number): Derived =>
+  ({
+    ...Object.fromEntries(DERIVED_NUMBERS.map((key) => [key, null])),
+    hPlus,
+    expectedPco2: null,
+    expectedHco3: null,
+  }) as Derived;
+
+/** What the parts of a reading write into: the derived values and how each was reached. */
+export interface Book {
+  derived: Derived;
+  explain: Record<string, Explanation>;
 }
 
 export interface Metabolic {
@@ -163,6 +183,3 @@ export interface InterpretOptions {
 }
 
 export const has = (x: N | undefined): x is number => x !== null && x !== undefined;
-
-/** Explanations are built only when read: each is a thunk over the values of one reading. */
-export type Explainers = Record<string, () => Explanation>;

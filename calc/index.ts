@@ -1,41 +1,68 @@
-// The calculation core's public surface.
-export { interpret, interpretParsed } from './interpret.ts';
+// The calculation core's public surface: the only door the other rooms (and the tests) use.
+export { interpret, interpretParsed, unitLooksMixed } from './interpret.ts';
 export type {
-  Findings,
-  Rejected,
+  Book,
+  Change,
   Derived,
+  DerivedNumber,
+  Findings,
+  InterpretOptions,
   Metabolic,
   Oxygenation,
-  Ventilation,
-  Venous,
-  Change,
   PreviousGas,
+  Rejected,
   Serial,
-  InterpretOptions,
+  Venous,
+  Ventilation,
 } from './findings.ts';
+export { DERIVED_NUMBERS } from './findings.ts';
 export {
   caseSchema,
   caseShape,
+  enteredUnit,
+  inRange,
   parseCase,
   rangeErrors,
-  toFieldErrors,
-  resolveUnits,
   rangeText,
+  toFieldErrors,
 } from './schema.ts';
-export type { CaseInput, ParsedCase, FieldError, Range } from './schema.ts';
-export type { CanonicalCase, Gas } from './canonical.ts';
-export type { Flag, FlagCode, Severity } from './flags.ts';
+export type { CaseInput, FieldError, ParsedCase, SafeParse } from './schema.ts';
+export {
+  FIELD,
+  FIELDS,
+  MAX_PREVIOUS_GASES,
+  PREVIOUS_SETTINGS,
+  fieldsOf,
+  keyOf,
+} from './fields.ts';
+export type { FieldPath, FieldSpec, KeysOf, Loinc, Printed, Specimen } from './fields.ts';
+export { canonicalValue, completeGas } from './canonical.ts';
+export type { CanonicalCase, Gas, Values } from './canonical.ts';
+export { readUnit, resolveUnits } from './units.ts';
+export type { PressureUnit, Quantity, UnitDef, UnitReading, Units } from './units.ts';
+export { gasTime, inTimeOrder } from './readSerial.ts';
+export type { Flag, FlagCode, FlagValue, Severity } from './flags.ts';
 export type {
-  Disorder,
-  DisorderCode,
-  DisorderDetail,
   Band,
   Compensation,
+  Disorder,
+  DisorderBasis,
+  DisorderCode,
+  DisorderDetail,
+  PhStatus,
   ReferencePoint,
   Timing,
-  PhStatus,
 } from './compensation.ts';
-export type { Explanation, Input } from './explain.ts';
-export * as units from './units.ts';
+export type { Explanation, How, Input } from './explain.ts';
+export { round } from './explain.ts';
+export { SOURCES, type SourceKey } from './sources.ts';
+// the formulas, one namespace per physiological idea
+export * as acidBase from './acidBase.ts';
+export * as anionGap from './anionGap.ts';
+export * as compensation from './compensation.ts';
+export * as osmolality from './osmolality.ts';
+export * as oxygenation from './oxygenation.ts';
+export * as physicochemical from './physicochemical.ts';
 export * as reference from './reference.ts';
-export { SOURCES } from './sources.ts';
+export * as units from './units.ts';
+export * as ventilation from './ventilation.ts';

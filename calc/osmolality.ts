@@ -1,5 +1,8 @@
 // Osmolar gap and lactate bands.
-import { ETHANOL_MG_DL_PER_MMOL_L } from './units.ts';
+import { QUANTITIES } from './units.ts';
+
+// ethanol mg/dL per mmol/L (molar mass 46.07 g/mol)
+const ETHANOL_MG_DL_PER_MMOL_L = 1 / QUANTITIES.ethanol.units['mg/dL'].factor;
 import { LACTATE, OSMOLAR_GAP_RAISED } from './reference.ts';
 
 // Calculated osmolality = 2 Na + glucose + urea (mmol/L), + ethanol mg/dL / 3.7 (Purssell et al. 2001).

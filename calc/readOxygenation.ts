@@ -14,8 +14,10 @@ import {
   sfRatio,
 } from './oxygenation.ts';
 import { flag, type Flag } from './flags.ts';
-import { explanation, input, round } from './explain.ts';
-import { type Derived, type Oxygenation, type Venous, has, type Explainers } from './findings.ts';
+import { input, record, round, type How } from './explain.ts';
+import { type Book, type Oxygenation, type Venous, has } from './findings.ts';
+
+const P = 'mmHg';
 
 export function notAssessed(c: CanonicalCase): Oxygenation {
   return {
@@ -32,150 +34,128 @@ export function notAssessed(c: CanonicalCase): Oxygenation {
   };
 }
 
-export function oxygenationPart(
-  c: CanonicalCase,
-  d: Derived,
-  explain: Explainers,
-  flags: Flag[],
-): Oxygenation {
+/** The barometric pressure: entered, from the altitude (ISO 2533), or sea level. */
+function barometric(c: CanonicalCase, book: Book, o: Oxygenation): number {
+  const { barometricPressure, altitudeM } = c.context;
+  const how = { label: 'Barometric pressure', unit: P, decimals: 0 } as const;
+  let pb: number;
+  let explained: Pick<How, 'formula' | 'inputs' | 'source'>;
+  if (has(barometricPressure)) {
+    pb = barometricPressure;
+    o.barometricSource = 'entered';
+    explained = { formula: 'as entered', inputs: [input('PB', pb, P)], source: 'commonPractice' };
+  } else if (has(altitudeM)) {
+    pb = barometricPressureAtAltitude(altitudeM);
+    o.barometricSource = 'altitude';
+    explained = {
+      formula: 'PB = 760 x (1 - 2.25577e-5 x altitude m)^5.25588',
+      inputs: [input('Altitude', altitudeM, 'm')],
+      source: 'isa',
+    };
+  } else {
+    pb = PHYSIOLOGY.seaLevelMmHg;
+    explained = {
+      formula: 'sea level (no altitude or pressure given)',
+      inputs: [input('PB at sea level', pb, P)],
+      source: 'isa',
+    };
+  }
+  return record(book, 'barometricPressure', pb, { ...how, ...explained });
+}
+
+export function oxygenationPart(c: CanonicalCase, book: Book, flags: Flag[]): Oxygenation {
   const o = notAssessed(c);
-  const g = c.gas,
-    ox = c.oxygen;
+  const g = c.gas;
+  const { fio2, spo2, peep } = c.oxygen;
   // SpO2/FiO2 needs no arterial PO2: it is the 2024 global definition's measure when no arterial gas is at hand
-  if (has(ox.spo2) && has(ox.fio2)) {
-    const sf = sfRatio(ox.spo2, ox.fio2);
-    d.sfRatio = sf;
-    o.sfMeetsCriterion = sfMeetsCriterion(ox.spo2, sf);
-    explain.sfRatio = () =>
-      explanation(
-        'sfRatio',
-        'SpO2/FiO2',
-        round(sf, 0),
-        '',
-        'S/F = SpO2 % / FiO2',
-        [input('SpO2', ox.spo2!, '%'), input('FiO2', ox.fio2!, '')],
-        'ardsGlobal2024',
-      );
+  if (has(spo2) && has(fio2)) {
+    const sf = record(book, 'sfRatio', sfRatio(spo2, fio2), {
+      label: 'SpO2/FiO2',
+      unit: '',
+      decimals: 0,
+      formula: 'S/F = SpO2 % / FiO2',
+      inputs: [input('SpO2', spo2, '%'), input('FiO2', fio2, '')],
+      source: 'ardsGlobal2024',
+    });
+    o.sfMeetsCriterion = sfMeetsCriterion(spo2, sf);
   }
   if (c.sample !== 'arterial') {
     flags.push(flag('oxygenation_not_assessable', 'info', { sample: c.sample }));
     return o;
   }
   o.assessable = has(g.po2);
-  let pb: number = PHYSIOLOGY.seaLevelMmHg;
-  if (has(c.context.barometricPressure)) {
-    pb = c.context.barometricPressure;
-    o.barometricSource = 'entered';
-  } else if (has(c.context.altitudeM)) {
-    pb = barometricPressureAtAltitude(c.context.altitudeM);
-    o.barometricSource = 'altitude';
-    explain.barometricPressure = () =>
-      explanation(
-        'barometricPressure',
-        'Barometric pressure',
-        round(pb, 0),
-        'mmHg',
-        'PB = 760 x (1 - 2.25577e-5 x altitude m)^5.25588',
-        [input('Altitude', c.context.altitudeM!, 'm')],
-        'isa',
-      );
-  }
-  d.barometricPressure = pb;
-  if (has(g.hb) && has(g.sao2)) {
-    d.oxygenContent = oxygenContent(g.hb, g.sao2, g.po2 ?? 0);
-    if (has(g.po2)) {
-      explain.oxygenContent = () =>
-        explanation(
-          'oxygenContent',
-          'O2 content',
-          round(d.oxygenContent!, 1),
-          'mL/dL',
-          'CaO2 = 1.34 x Hb x SaO2 + 0.003 x PaO2',
-          [
-            input('Hb', round(g.hb!, 1), 'g/dL'),
-            input('SaO2', g.sao2!, '%'),
-            input('PaO2', round(g.po2!, 1), 'mmHg'),
-          ],
-          'oxygenContent',
-        );
-    } else d.oxygenContent = null;
+  const pb = barometric(c, book, o);
+  if (has(g.hb) && has(g.sao2) && has(g.po2)) {
+    record(book, 'oxygenContent', oxygenContent(g.hb, g.sao2, g.po2), {
+      label: 'O2 content',
+      unit: 'mL/dL',
+      decimals: 1,
+      formula: 'CaO2 = 1.34 x Hb x SaO2 + 0.003 x PaO2',
+      inputs: [
+        input('Hb', round(g.hb, 1), 'g/dL'),
+        input('SaO2', g.sao2, '%'),
+        input('PaO2', g.po2, P),
+      ],
+      source: 'oxygenContent',
+    });
   }
   if (!has(g.po2)) return o;
   o.level = oxygenationLevel(g.po2);
   if (g.po2 < OXYGENATION.respiratoryFailure)
     o.failureType = g.pco2 > OXYGENATION.hypercapnia ? 2 : 1;
-  if (!has(ox.fio2)) {
+  if (!has(fio2)) {
     flags.push(flag('fio2_missing', 'info', {}));
     return o;
   }
-  const pao2 = alveolarPo2(ox.fio2, g.pco2, pb);
-  d.alveolarPo2 = pao2;
-  explain.alveolarPo2 = () =>
-    explanation(
-      'alveolarPo2',
-      'Alveolar PO2',
-      round(pao2, 1),
-      'mmHg',
-      'PAO2 = FiO2 x (PB - 47) - PaCO2 / 0.8',
-      [
-        input('FiO2', ox.fio2!, ''),
-        input('PB', round(pb, 0), 'mmHg'),
-        input('PaCO2', round(g.pco2, 1), 'mmHg'),
-      ],
-      'alveolarGas',
-    );
-  const gradient = aaGradient(pao2, g.po2);
-  d.aaGradient = gradient;
-  explain.aaGradient = () =>
-    explanation(
-      'aaGradient',
-      'A-a gradient',
-      round(gradient, 1),
-      'mmHg',
-      'A-a = PAO2 - PaO2',
-      [input('PAO2', round(pao2, 1), 'mmHg'), input('PaO2', round(g.po2!, 1), 'mmHg')],
-      'alveolarGas',
-    );
-  if (g.po2 > pao2)
+  const alveolar = record(book, 'alveolarPo2', alveolarPo2(fio2, g.pco2, pb), {
+    label: 'Alveolar PO2',
+    unit: P,
+    decimals: 1,
+    formula: 'PAO2 = FiO2 x (PB - 47) - PaCO2 / 0.8',
+    inputs: [input('FiO2', fio2, ''), input('PB', round(pb, 0), P), input('PaCO2', g.pco2, P)],
+    source: 'alveolarGas',
+  });
+  const gradient = record(book, 'aaGradient', aaGradient(alveolar, g.po2), {
+    label: 'A-a gradient',
+    unit: P,
+    decimals: 1,
+    formula: 'A-a = PAO2 - PaO2',
+    inputs: [input('PAO2', alveolar, P), input('PaO2', g.po2, P)],
+    source: 'alveolarGas',
+  });
+  if (g.po2 > alveolar)
     flags.push(
       flag('po2_above_alveolar', 'warning', {
         po2: round(g.po2, 1),
-        alveolarPo2: round(pao2, 1),
-        fio2: ox.fio2,
+        alveolarPo2: round(alveolar, 1),
+        fio2,
       }),
     );
-  const roomAir = Math.abs(ox.fio2 - OXYGENATION.roomAirFio2) < 0.005;
-  if (has(c.patient.ageYears)) {
-    const expected = expectedAaGradient(c.patient.ageYears);
-    d.aaGradientExpected = expected;
-    explain.aaGradientExpected = () =>
-      explanation(
-        'aaGradientExpected',
-        'Expected A-a gradient (room air)',
-        round(expected, 0),
-        'mmHg',
-        'age / 4 + 4',
-        [input('Age', c.patient.ageYears!, 'years')],
-        'aaAge',
-      );
+  const roomAir = Math.abs(fio2 - OXYGENATION.roomAirFio2) < 0.005;
+  const age = c.patient.ageYears;
+  if (has(age)) {
+    const expected = record(book, 'aaGradientExpected', expectedAaGradient(age), {
+      label: 'Expected A-a gradient (room air)',
+      unit: P,
+      decimals: 0,
+      formula: 'age / 4 + 4',
+      inputs: [input('Age', age, 'years')],
+      source: 'aaAge',
+    });
     if (roomAir) {
       o.aaRaised = gradient > expected;
       o.lowInspiredOrHypoventilation = o.level !== 'normal' && !o.aaRaised;
-    } else flags.push(flag('aa_reference_room_air_only', 'info', { fio2: ox.fio2 }));
+    } else flags.push(flag('aa_reference_room_air_only', 'info', { fio2 }));
   }
-  const pf = pfRatio(g.po2, ox.fio2);
-  d.pfRatio = pf;
-  explain.pfRatio = () =>
-    explanation(
-      'pfRatio',
-      'P/F ratio',
-      round(pf, 0),
-      'mmHg',
-      'P/F = PaO2 / FiO2',
-      [input('PaO2', round(g.po2!, 1), 'mmHg'), input('FiO2', ox.fio2!, '')],
-      'ardsBerlin',
-    );
-  o.pfBandApplies = has(ox.peep) && ox.peep >= OXYGENATION.pfMinimumPeep;
+  const pf = record(book, 'pfRatio', pfRatio(g.po2, fio2), {
+    label: 'P/F ratio',
+    unit: P,
+    decimals: 0,
+    formula: 'P/F = PaO2 / FiO2',
+    inputs: [input('PaO2', g.po2, P), input('FiO2', fio2, '')],
+    source: 'ardsBerlin',
+  });
+  o.pfBandApplies = has(peep) && peep >= OXYGENATION.pfMinimumPeep;
   o.pfBand = pfBand(pf);
   return o;
 }

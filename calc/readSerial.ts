@@ -2,36 +2,43 @@
 import type { CanonicalCase } from './canonical.ts';
 import { SERIAL } from './reference.ts';
 import { alveolarVentilation, predictedPco2AfterChange } from './ventilation.ts';
-import { explanation, input, round } from './explain.ts';
-import {
-  type Derived,
-  type PreviousGas,
-  type Change,
-  type Serial,
-  has,
-  type Explainers,
-} from './findings.ts';
+import { input, record } from './explain.ts';
+import { type Book, type Change, type N, type PreviousGas, type Serial, has } from './findings.ts';
 
-/** Earlier gases in time order: by takenAt when every one has an ISO date and time, else as entered. */
-export function inTimeOrder<T extends { takenAt: string | null }>(gases: T[]): T[] {
-  const iso = /^\d{4}-\d{2}-\d{2}([T ]\d{2}:\d{2}(:\d{2})?)?/;
-  if (!gases.every((g) => g.takenAt !== null && iso.test(g.takenAt))) return gases;
+const TIME = /^(\d{4})-(\d{2})-(\d{2})(?:[T ](\d{2}):(\d{2})(?::(\d{2}))?)?/;
+
+/**
+ * When a gas was taken, as a number that sorts in time order: "2026-03-02 04:10" and "2026-03-02T04:10" are the
+ * same moment, and a date alone is its midnight. Null for text that is not such a date. Times are read as written
+ * (local to the ward that wrote them); a zone suffix is ignored.
+ */
+export function gasTime(takenAt: string | null | undefined): number | null {
+  const m = TIME.exec(takenAt?.trim() ?? '');
+  if (!m) return null;
+  const [, y, mo, d, h, mi, s] = m.map((x) => (x === undefined ? 0 : Number(x)));
+  const time = Date.UTC(y!, mo! - 1, d!, h!, mi!, s!);
+  return Number.isNaN(time) ? null : time;
+}
+
+/**
+ * Gases in time order, oldest first: by their time taken when every one has a date, else as entered (a gas
+ * without a time cannot be placed). The one ordering the note, the chart and the page all use.
+ */
+export function inTimeOrder<T extends { takenAt?: string | null }>(gases: readonly T[]): T[] {
+  const times = gases.map((g) => gasTime(g.takenAt));
+  if (times.some((t) => t === null)) return [...gases];
   return gases
-    .map((g, i) => ({ g, i }))
-    .sort((a, b) =>
-      a.g.takenAt! < b.g.takenAt! ? -1 : a.g.takenAt! > b.g.takenAt! ? 1 : a.i - b.i,
-    )
+    .map((g, i) => ({ g, i, t: times[i]! }))
+    .sort((a, b) => a.t - b.t || a.i - b.i)
     .map((x) => x.g);
 }
 
-export function changesSince(c: CanonicalCase): Change[] {
-  const last = inTimeOrder(c.previous).at(-1);
+export function changesSince(c: CanonicalCase, last: PreviousGas | undefined): Change[] {
   if (!last) return [];
   const out: Change[] = [];
-  const fields = ['ph', 'pco2', 'hco3', 'po2', 'lactate'] as const;
-  for (const field of fields) {
-    const from = last.gas[field],
-      to = c.gas[field];
+  for (const field of ['ph', 'pco2', 'hco3', 'po2', 'lactate'] as const) {
+    const from = last.gas[field];
+    const to = c.gas[field];
     if (has(from) && has(to)) out.push({ field, from, to, change: to - from });
   }
   return out;
@@ -41,8 +48,8 @@ export function changesSince(c: CanonicalCase): Change[] {
 export function serialPart(
   c: CanonicalCase,
   last: PreviousGas | null,
-  d: Derived,
-  explain: Explainers,
+  deadSpace: N,
+  book: Book,
 ): Serial | null {
   if (!last) return null;
   const v = c.ventilator;
@@ -62,16 +69,35 @@ export function serialPart(
     return out;
   }
   // with VT unchanged, VA scales with RR whatever the dead space; otherwise the dead space per breath is needed
-  const vd = d.deadSpaceMl ?? (v.vt === last.vt ? 0 : null);
+  const vd = deadSpace ?? (v.vt === last.vt ? 0 : null);
   if (vd === null || last.vt - vd <= 0 || v.vt - vd <= 0) {
     out.predictionUnavailable = 'dead_space_unknown';
     return out;
   }
-  const vaBefore = alveolarVentilation(last.rr, last.vt, vd),
-    vaNow = alveolarVentilation(v.rr, v.vt, vd);
-  const predicted = predictedPco2AfterChange(last.gas.pco2, vaBefore, vaNow);
-  const observed = c.gas.pco2,
-    difference = observed - predicted;
+  const vaBefore = alveolarVentilation(last.rr, last.vt, vd);
+  const vaNow = alveolarVentilation(v.rr, v.vt, vd);
+  const predicted = record(
+    book,
+    'predictedPco2',
+    predictedPco2AfterChange(last.gas.pco2, vaBefore, vaNow),
+    {
+      label: 'PaCO2 predicted after the ventilator change',
+      unit: 'mmHg',
+      decimals: 1,
+      formula: 'PaCO2_new = PaCO2_before x VA_before / VA_now, VA = RR x (VT - VD)',
+      inputs: [
+        input('PaCO2 before', last.gas.pco2, 'mmHg'),
+        input('RR before', last.rr, '/min'),
+        input('VT before', last.vt, 'mL'),
+        input('RR now', v.rr, '/min'),
+        input('VT now', v.vt, 'mL'),
+        input(deadSpace === null ? 'VD (cancels out: VT unchanged)' : 'VD', Math.round(vd), 'mL'),
+      ],
+      source: 'west',
+    },
+  );
+  const observed = c.gas.pco2;
+  const difference = observed - predicted;
   const tolerance = Math.max(SERIAL.pco2Absolute, SERIAL.pco2Relative * predicted);
   out.prediction = {
     vaBefore,
@@ -82,23 +108,5 @@ export function serialPart(
     verdict:
       Math.abs(difference) <= tolerance ? 'as_predicted' : difference > 0 ? 'higher' : 'lower',
   };
-  d.predictedPco2 = predicted;
-  explain.predictedPco2 = () =>
-    explanation(
-      'predictedPco2',
-      'PaCO2 predicted after the ventilator change',
-      round(predicted, 1),
-      'mmHg',
-      'PaCO2_new = PaCO2_before x VA_before / VA_now, VA = RR x (VT - VD)',
-      [
-        input('PaCO2 before', round(last.gas.pco2, 1), 'mmHg'),
-        input('RR before', last.rr!, '/min'),
-        input('VT before', last.vt!, 'mL'),
-        input('RR now', v.rr!, '/min'),
-        input('VT now', v.vt!, 'mL'),
-        input(d.deadSpaceMl === null ? 'VD (cancels out: VT unchanged)' : 'VD', round(vd, 0), 'mL'),
-      ],
-      'west',
-    );
   return out;
 }

@@ -1,6 +1,7 @@
-// The ventilation part of a reading: PBW, VT per kg, pressures, dead space, the target PaCO2 and the settings to reach it.
-import { VENTILATOR_RANGES } from './schema.ts';
+// The ventilation part of a reading: PBW, VT per kg, pressures, dead space, the target PaCO2 and the settings to
+// reach it.
 import type { CanonicalCase } from './canonical.ts';
+import { FIELD } from './fields.ts';
 import { NORMAL, VENTILATION } from './reference.ts';
 import { hydrogenIon } from './acidBase.ts';
 import { wintersPco2, type Classification, type ReferencePoint } from './compensation.ts';
@@ -19,68 +20,45 @@ import {
   vtPerKg,
 } from './ventilation.ts';
 import { flag, type Flag } from './flags.ts';
-import { explanation, input, round } from './explain.ts';
-import { type N, type Derived, type Ventilation, has, type Explainers } from './findings.ts';
+import { input, record, round } from './explain.ts';
+import { type Book, type N, type Ventilation, has } from './findings.ts';
 
-export function ventilationPart(
-  c: CanonicalCase,
-  d: Derived,
-  explain: Explainers,
-  flags: Flag[],
-  cl: Classification,
-  ref: ReferencePoint,
-): Ventilation | null {
-  const v = c.ventilator;
-  if (!v) return null;
-  const g = c.gas,
-    p = c.patient,
-    peep = c.oxygen.peep;
-  const out: Ventilation = {
-    ventilated: true,
-    deadSpaceSource: null,
-    targetSource: null,
-    targetForm: null,
-    recheckMinutes: { ...VENTILATION.recheckMinutes },
-    compensationTarget: null,
-    usualPco2: null,
-  };
+const P = 'mmHg';
+type Vent = NonNullable<CanonicalCase['ventilator']>;
+
+/** Predicted body weight, VT per kg and the pressures, with their flags. */
+function mechanics(c: CanonicalCase, v: Vent, book: Book, flags: Flag[]) {
+  const { sex, heightCm } = c.patient;
+  const peep = c.oxygen.peep;
   let pbw: N = null;
-  if (p.sex && has(p.heightCm)) {
-    if (p.heightCm < 130)
-      flags.push(flag('pbw_not_applicable', 'warning', { heightCm: p.heightCm }));
-    else {
-      pbw = predictedBodyWeight(p.sex, p.heightCm);
-      d.predictedBodyWeightKg = pbw;
-      explain.predictedBodyWeightKg = () =>
-        explanation(
-          'predictedBodyWeightKg',
-          'Predicted body weight',
-          round(pbw!, 1),
-          'kg',
-          `${p.sex === 'male' ? '50' : '45.5'} + 0.91 x (height cm - 152.4)`,
-          [input('Height', p.heightCm!, 'cm')],
-          'ardsnet2000',
-        );
-    }
+  let vtPerKgPbw: N = null;
+  if (sex && has(heightCm)) {
+    if (heightCm < 130) flags.push(flag('pbw_not_applicable', 'warning', { heightCm }));
+    else
+      pbw = record(book, 'predictedBodyWeightKg', predictedBodyWeight(sex, heightCm), {
+        label: 'Predicted body weight',
+        unit: 'kg',
+        decimals: 1,
+        formula: `${sex === 'male' ? '50' : '45.5'} + 0.91 x (height cm - 152.4)`,
+        inputs: [input('Height', heightCm, 'cm')],
+        source: 'ardsnet2000',
+      });
   }
   if (has(v.vt) && pbw !== null) {
-    d.vtPerKgPbw = vtPerKg(v.vt, pbw);
-    explain.vtPerKgPbw = () =>
-      explanation(
-        'vtPerKgPbw',
-        'VT per kg PBW',
-        round(d.vtPerKgPbw!, 1),
-        'mL/kg',
-        'VT / PBW',
-        [input('VT', v.vt!, 'mL'), input('PBW', round(pbw, 1), 'kg')],
-        'ardsnet2000',
-      );
-    if (d.vtPerKgPbw > VENTILATION.vtHighPerKg)
+    vtPerKgPbw = record(book, 'vtPerKgPbw', vtPerKg(v.vt, pbw), {
+      label: 'VT per kg PBW',
+      unit: 'mL/kg',
+      decimals: 1,
+      formula: 'VT / PBW',
+      inputs: [input('VT', v.vt, 'mL'), input('PBW', round(pbw, 1), 'kg')],
+      source: 'ardsnet2000',
+    });
+    if (vtPerKgPbw > VENTILATION.vtHighPerKg)
       flags.push(
         flag('vt_above_8_ml_per_kg', 'warning', {
           which: 'current',
           vt: v.vt,
-          vtPerKg: round(d.vtPerKgPbw, 1),
+          vtPerKg: round(vtPerKgPbw, 1),
         }),
       );
   }
@@ -90,235 +68,272 @@ export function ventilationPart(
     if (v.pplat > VENTILATION.plateauMax)
       flags.push(flag('plateau_above_30', 'warning', { pplat: v.pplat }));
     if (has(peep)) {
-      d.drivingPressure = drivingPressure(v.pplat, peep);
-      explain.drivingPressure = () =>
-        explanation(
-          'drivingPressure',
-          'Driving pressure',
-          round(d.drivingPressure!, 0),
-          'cmH2O',
-          'Pplat - PEEP',
-          [input('Pplat', v.pplat!, 'cmH2O'), input('PEEP', peep, 'cmH2O')],
-          'amato2015',
-        );
-      if (d.drivingPressure > VENTILATION.drivingPressureMax)
+      const driving = record(book, 'drivingPressure', drivingPressure(v.pplat, peep), {
+        label: 'Driving pressure',
+        unit: 'cmH2O',
+        decimals: 0,
+        formula: 'Pplat - PEEP',
+        inputs: [input('Pplat', v.pplat, 'cmH2O'), input('PEEP', peep, 'cmH2O')],
+        source: 'amato2015',
+      });
+      if (driving > VENTILATION.drivingPressureMax)
         flags.push(
-          flag('driving_pressure_above_15', 'warning', {
-            drivingPressure: round(d.drivingPressure, 0),
-          }),
+          flag('driving_pressure_above_15', 'warning', { drivingPressure: round(driving, 0) }),
         );
     }
   }
-  // dead space: a measured VD/VT first, else the anatomic estimate plus apparatus
+  return { pbw, vtPerKgPbw };
+}
+
+/** Dead space (a measured VD/VT first, else the anatomic estimate plus apparatus), VE, VA and VCO2. */
+function ventilationVolumes(
+  c: CanonicalCase,
+  v: Vent,
+  pbw: N,
+  book: Book,
+  flags: Flag[],
+  out: Ventilation,
+): N {
   let vd: N = null;
   if (has(v.deadSpaceFraction) && has(v.vt)) {
-    vd = v.deadSpaceFraction * v.vt;
     out.deadSpaceSource = 'measured_fraction';
-    explain.deadSpaceMl = () =>
-      explanation(
-        'deadSpaceMl',
-        'Dead space',
-        round(vd!, 0),
-        'mL',
-        'VD = VD/VT x VT',
-        [input('VD/VT', v.deadSpaceFraction!, ''), input('VT', v.vt!, 'mL')],
-        'west',
-      );
+    vd = record(book, 'deadSpaceMl', v.deadSpaceFraction * v.vt, {
+      label: 'Dead space',
+      unit: 'mL',
+      decimals: 0,
+      formula: 'VD = VD/VT x VT',
+      inputs: [input('VD/VT', v.deadSpaceFraction, ''), input('VT', v.vt, 'mL')],
+      source: 'west',
+    });
   } else if (pbw !== null) {
-    vd = estimatedDeadSpace(pbw, v.deadSpaceMl ?? 0);
     out.deadSpaceSource = 'estimated';
-    explain.deadSpaceMl = () =>
-      explanation(
-        'deadSpaceMl',
-        'Dead space (estimate)',
-        round(vd!, 0),
-        'mL',
-        '2.2 mL/kg x PBW + apparatus dead space',
-        [input('PBW', round(pbw, 1), 'kg'), input('Apparatus', v.deadSpaceMl ?? 0, 'mL')],
-        'radford1955',
-      );
+    vd = record(book, 'deadSpaceMl', estimatedDeadSpace(pbw, v.deadSpaceMl ?? 0), {
+      label: 'Dead space (estimate)',
+      unit: 'mL',
+      decimals: 0,
+      formula: '2.2 mL/kg x PBW + apparatus dead space',
+      inputs: [input('PBW', round(pbw, 1), 'kg'), input('Apparatus', v.deadSpaceMl ?? 0, 'mL')],
+      source: 'radford1955',
+    });
   }
-  d.deadSpaceMl = vd;
-  if (has(v.rr) && has(v.vt)) {
-    d.minuteVentilation = minuteVentilation(v.rr, v.vt);
-    explain.minuteVentilation = () =>
-      explanation(
-        'minuteVentilation',
-        'Minute ventilation',
-        round(d.minuteVentilation!, 1),
-        'L/min',
-        'VE = RR x VT',
-        [input('RR', v.rr!, '/min'), input('VT', v.vt!, 'mL')],
-        'west',
-      );
-    if (vd !== null) {
-      if (v.vt - vd <= 0)
-        flags.push(flag('dead_space_exceeds_vt', 'warning', { vt: v.vt, deadSpace: round(vd, 0) }));
-      else {
-        const va = alveolarVentilation(v.rr, v.vt, vd);
-        d.alveolarVentilation = va;
-        d.co2Production = co2ProductionEstimate(g.pco2, va);
-        explain.alveolarVentilation = () =>
-          explanation(
-            'alveolarVentilation',
-            'Alveolar ventilation',
-            round(va, 1),
-            'L/min',
-            'VA = RR x (VT - VD)',
-            [input('RR', v.rr!, '/min'), input('VT', v.vt!, 'mL'), input('VD', round(vd, 0), 'mL')],
-            'west',
-          );
-        explain.co2Production = () =>
-          explanation(
-            'co2Production',
-            'CO2 production (estimate)',
-            round(d.co2Production!, 0),
-            'mL/min',
-            'VCO2 = PaCO2 x VA / 0.863',
-            [input('PaCO2', round(g.pco2, 1), 'mmHg'), input('VA', round(va, 2), 'L/min')],
-            'west',
-          );
-      }
-    }
-    if (pbw !== null) {
-      d.ventilatoryRatio = ventilatoryRatio(v.rr * v.vt, g.pco2, pbw);
-      explain.ventilatoryRatio = () =>
-        explanation(
-          'ventilatoryRatio',
-          'Ventilatory ratio',
-          round(d.ventilatoryRatio!, 2),
-          '',
-          '(VE mL/min x PaCO2) / (PBW x 100 x 37.5)',
-          [
-            input('VE', v.rr! * v.vt!, 'mL/min'),
-            input('PaCO2', round(g.pco2, 1), 'mmHg'),
-            input('PBW', round(pbw, 1), 'kg'),
-          ],
-          'sinha2009',
-        );
+  if (!has(v.rr) || !has(v.vt)) return vd;
+  const { rr, vt } = v;
+  const pco2 = c.gas.pco2;
+  record(book, 'minuteVentilation', minuteVentilation(rr, vt), {
+    label: 'Minute ventilation',
+    unit: 'L/min',
+    decimals: 1,
+    formula: 'VE = RR x VT',
+    inputs: [input('RR', rr, '/min'), input('VT', vt, 'mL')],
+    source: 'west',
+  });
+  if (vd !== null) {
+    if (vt - vd <= 0)
+      flags.push(flag('dead_space_exceeds_vt', 'warning', { vt, deadSpace: round(vd, 0) }));
+    else {
+      const va = record(book, 'alveolarVentilation', alveolarVentilation(rr, vt, vd), {
+        label: 'Alveolar ventilation',
+        unit: 'L/min',
+        decimals: 1,
+        formula: 'VA = RR x (VT - VD)',
+        inputs: [input('RR', rr, '/min'), input('VT', vt, 'mL'), input('VD', round(vd, 0), 'mL')],
+        source: 'west',
+      });
+      record(book, 'co2Production', co2ProductionEstimate(pco2, va), {
+        label: 'CO2 production (estimate)',
+        unit: 'mL/min',
+        decimals: 0,
+        formula: 'VCO2 = PaCO2 x VA / 0.863',
+        inputs: [input('PaCO2', pco2, P), input('VA', round(va, 2), 'L/min')],
+        source: 'west',
+      });
     }
   }
+  if (pbw !== null)
+    record(book, 'ventilatoryRatio', ventilatoryRatio(rr * vt, pco2, pbw), {
+      label: 'Ventilatory ratio',
+      unit: '',
+      decimals: 2,
+      formula: '(VE mL/min x PaCO2) / (PBW x 100 x 37.5)',
+      inputs: [
+        input('VE', rr * vt, 'mL/min'),
+        input('PaCO2', pco2, P),
+        input('PBW', round(pbw, 1), 'kg'),
+      ],
+      source: 'sinha2009',
+    });
+  return vd;
+}
 
-  // the target PaCO2 (clinical-scope section 8)
-  let target: N = null;
+/** The target PaCO2 (clinical-scope section 8): as given, or for a target pH with acute buffering. */
+function targetOf(c: CanonicalCase, v: Vent, book: Book, flags: Flag[], out: Ventilation): N {
+  const g = c.gas;
   if (has(v.targetPco2)) {
-    target = v.targetPco2;
     out.targetSource = 'target_pco2';
     out.targetForm = 'as_given';
-  } else if (has(v.targetPh)) {
-    const hTarget = hydrogenIon(v.targetPh);
-    d.targetPco2Simple = targetPco2Simple(hTarget, g.hco3);
-    explain.targetPco2Simple = () =>
-      explanation(
-        'targetPco2Simple',
-        'Target PaCO2 (HCO3 held constant)',
-        round(d.targetPco2Simple!, 1),
-        'mmHg',
-        'PaCO2_t = [H+]_t x HCO3 / 24',
-        [input('[H+] at target pH', round(hTarget, 1), 'nmol/L'), input('HCO3', g.hco3, 'mmol/L')],
-        'henderson',
-      );
-    target = targetPco2Buffered(hTarget, g.hco3, g.pco2);
-    out.targetSource = 'target_ph';
-    out.targetForm = 'acute_buffering';
-    if (target === null)
-      flags.push(flag('target_not_reachable', 'warning', { targetPh: v.targetPh }));
-    else
-      explain.targetPco2 = () =>
-        explanation(
-          'targetPco2',
-          'Target PaCO2 (acute buffering)',
-          round(target!, 1),
-          'mmHg',
-          'PaCO2_t = [H+]_t x (HCO3 - 0.1 x PaCO2) / (24 - 0.1 x [H+]_t)',
-          [
-            input('Target pH', v.targetPh!, ''),
-            input('[H+] at target pH', round(hTarget, 1), 'nmol/L'),
-            input('HCO3', g.hco3, 'mmol/L'),
-            input('PaCO2 now', round(g.pco2, 1), 'mmHg'),
-          ],
-          'targetPco2',
-        );
-  } else flags.push(flag('no_ventilation_target', 'info', {}));
-  d.targetPco2 = target;
-  if (target === null) return out;
-  if (target < VENTILATOR_RANGES.targetPco2.min) {
-    // a target below the lowest plausible PaCO2 is not a ventilator setting to suggest
+    return record(book, 'targetPco2', v.targetPco2, {
+      label: 'Target PaCO2 (as given)',
+      unit: P,
+      decimals: 1,
+      formula: 'as entered',
+      inputs: [input('Target PaCO2', v.targetPco2, P)],
+      source: 'commonPractice',
+    });
+  }
+  if (!has(v.targetPh)) {
+    flags.push(flag('no_ventilation_target', 'info', {}));
+    return null;
+  }
+  out.targetSource = 'target_ph';
+  out.targetForm = 'acute_buffering';
+  const hTarget = hydrogenIon(v.targetPh);
+  record(book, 'targetPco2Simple', targetPco2Simple(hTarget, g.hco3), {
+    label: 'Target PaCO2 (HCO3 held constant)',
+    unit: P,
+    decimals: 1,
+    formula: 'PaCO2_t = [H+]_t x HCO3 / 24',
+    inputs: [
+      input('[H+] at target pH', round(hTarget, 1), 'nmol/L'),
+      input('HCO3', g.hco3, 'mmol/L'),
+    ],
+    source: 'henderson',
+  });
+  const target = targetPco2Buffered(hTarget, g.hco3, g.pco2);
+  if (target === null) {
+    flags.push(flag('target_not_reachable', 'warning', { targetPh: v.targetPh }));
+    return null;
+  }
+  // a target below the lowest plausible PaCO2 is not a ventilator setting to suggest
+  if (target < FIELD['ventilator.targetPco2'].range[0]) {
     flags.push(
       flag('target_not_reachable', 'warning', {
         targetPh: v.targetPh,
         targetPco2: round(target, 1),
       }),
     );
-    d.targetPco2 = null;
-    delete explain.targetPco2;
-    return out;
+    return null;
   }
+  return record(book, 'targetPco2', target, {
+    label: 'Target PaCO2 (acute buffering)',
+    unit: P,
+    decimals: 1,
+    formula: 'PaCO2_t = [H+]_t x (HCO3 - 0.1 x PaCO2) / (24 - 0.1 x [H+]_t)',
+    inputs: [
+      input('Target pH', v.targetPh, ''),
+      input('[H+] at target pH', round(hTarget, 1), 'nmol/L'),
+      input('HCO3', g.hco3, 'mmol/L'),
+      input('PaCO2 now', g.pco2, P),
+    ],
+    source: 'targetPco2',
+  });
+}
+
+/** The RR at unchanged VT and the VT at unchanged RR that should reach the target (West). */
+function routes(
+  c: CanonicalCase,
+  v: Vent,
+  target: number,
+  vd: N,
+  fit: ReturnType<typeof mechanics>,
+  book: Book,
+  flags: Flag[],
+) {
+  if (!has(v.rr) || !has(v.vt)) return;
+  const pco2 = c.gas.pco2;
+  const { pbw, vtPerKgPbw } = fit;
+  const rr = record(book, 'suggestedRr', Math.round(rrForTarget(v.rr, pco2, target)), {
+    label: 'RR at unchanged VT',
+    unit: '/min',
+    decimals: 0,
+    formula: 'RR_new = RR x PaCO2 now / PaCO2 target',
+    inputs: [
+      input('RR', v.rr, '/min'),
+      input('PaCO2 now', pco2, P),
+      input('PaCO2 target', target, P),
+    ],
+    source: 'west',
+  });
+  if (rr > VENTILATION.rrMax)
+    flags.push(flag('rr_above_35', 'warning', { which: 'suggested', rr }));
+  let vtPerKgSuggested: N = null;
+  if (vd !== null && v.vt - vd > 0) {
+    const vt = record(
+      book,
+      'suggestedVt',
+      Math.round(vtForTarget(v.vt, vd, pco2, target) / 10) * 10,
+      {
+        label: 'VT at unchanged RR',
+        unit: 'mL',
+        decimals: 0,
+        formula: 'VT_new = VD + (VT - VD) x PaCO2 now / PaCO2 target',
+        inputs: [
+          input('VT', v.vt, 'mL'),
+          input('VD', round(vd, 0), 'mL'),
+          input('PaCO2 now', pco2, P),
+          input('PaCO2 target', target, P),
+        ],
+        source: 'west',
+      },
+    );
+    if (pbw !== null) {
+      vtPerKgSuggested = record(book, 'suggestedVtPerKgPbw', vt / pbw, {
+        label: 'Suggested VT per kg PBW',
+        unit: 'mL/kg',
+        decimals: 1,
+        formula: 'VT_new / PBW',
+        inputs: [input('VT_new', vt, 'mL'), input('PBW', round(pbw, 1), 'kg')],
+        source: 'ardsnet2000',
+      });
+      if (vtPerKgSuggested > VENTILATION.vtHighPerKg)
+        flags.push(
+          flag('vt_above_8_ml_per_kg', 'warning', {
+            which: 'suggested',
+            vt,
+            vtPerKg: round(vtPerKgSuggested, 1),
+          }),
+        );
+    }
+  }
+  const lungProtective = vtPerKgPbw !== null && vtPerKgPbw <= VENTILATION.vtHighPerKg;
+  // permissive hypercapnia is worth weighing only when neither route reaches the target within limits
+  const hardToReach =
+    rr > VENTILATION.rrMax &&
+    (vtPerKgSuggested === null || vtPerKgSuggested > VENTILATION.vtHighPerKg);
+  if (lungProtective && hardToReach && target < pco2)
+    flags.push(
+      flag('permissive_hypercapnia_possible', 'info', {
+        pco2: round(pco2, 1),
+        target: round(target, 1),
+      }),
+    );
+}
+
+export function ventilationPart(
+  c: CanonicalCase,
+  book: Book,
+  flags: Flag[],
+  cl: Classification,
+  ref: ReferencePoint,
+): { ventilation: Ventilation | null; deadSpace: N } {
+  const v = c.ventilator;
+  if (!v) return { ventilation: null, deadSpace: null };
+  const g = c.gas;
+  const out: Ventilation = {
+    ventilated: true,
+    deadSpaceSource: null,
+    targetSource: null,
+    targetForm: null,
+    recheckMinutes: { ...VENTILATION.recheckMinutes },
+    compensationTarget: null,
+    usualPco2: null,
+  };
+  const fit = mechanics(c, v, book, flags);
+  const vd = ventilationVolumes(c, v, fit.pbw, book, flags, out);
+  const target = targetOf(c, v, book, flags, out);
+  if (target === null) return { ventilation: out, deadSpace: vd };
   if (c.sample !== 'arterial')
     flags.push(flag('suggestion_from_venous_pco2', 'warning', { sample: c.sample }));
-
-  if (has(v.rr) && has(v.vt)) {
-    const rr = Math.round(rrForTarget(v.rr, g.pco2, target));
-    d.suggestedRr = rr;
-    explain.suggestedRr = () =>
-      explanation(
-        'suggestedRr',
-        'RR at unchanged VT',
-        rr,
-        '/min',
-        'RR_new = RR x PaCO2 now / PaCO2 target',
-        [
-          input('RR', v.rr!, '/min'),
-          input('PaCO2 now', round(g.pco2, 1), 'mmHg'),
-          input('PaCO2 target', round(target, 1), 'mmHg'),
-        ],
-        'west',
-      );
-    if (rr > VENTILATION.rrMax)
-      flags.push(flag('rr_above_35', 'warning', { which: 'suggested', rr }));
-    if (vd !== null && v.vt - vd > 0) {
-      const vt = Math.round(vtForTarget(v.vt, vd, g.pco2, target) / 10) * 10;
-      d.suggestedVt = vt;
-      explain.suggestedVt = () =>
-        explanation(
-          'suggestedVt',
-          'VT at unchanged RR',
-          vt,
-          'mL',
-          'VT_new = VD + (VT - VD) x PaCO2 now / PaCO2 target',
-          [
-            input('VT', v.vt!, 'mL'),
-            input('VD', round(vd, 0), 'mL'),
-            input('PaCO2 now', round(g.pco2, 1), 'mmHg'),
-            input('PaCO2 target', round(target, 1), 'mmHg'),
-          ],
-          'west',
-        );
-      if (pbw !== null) {
-        d.suggestedVtPerKgPbw = vt / pbw;
-        if (d.suggestedVtPerKgPbw > VENTILATION.vtHighPerKg)
-          flags.push(
-            flag('vt_above_8_ml_per_kg', 'warning', {
-              which: 'suggested',
-              vt,
-              vtPerKg: round(d.suggestedVtPerKgPbw, 1),
-            }),
-          );
-      }
-    }
-    const lungProtective = d.vtPerKgPbw !== null && d.vtPerKgPbw <= VENTILATION.vtHighPerKg;
-    // permissive hypercapnia is worth weighing only when neither route reaches the target within limits
-    const hardToReach =
-      rr > VENTILATION.rrMax &&
-      (d.suggestedVtPerKgPbw === null || d.suggestedVtPerKgPbw > VENTILATION.vtHighPerKg);
-    if (lungProtective && hardToReach && target < g.pco2)
-      flags.push(
-        flag('permissive_hypercapnia_possible', 'info', {
-          pco2: round(g.pco2, 1),
-          target: round(target, 1),
-        }),
-      );
-  }
+  routes(c, v, target, vd, fit, book, flags);
 
   // a target below what the patient needs (clinical-scope section 8)
   const metabolicAcidosis = cl.disorders.some((x) => x.code === 'metabolic_acidosis');
@@ -343,7 +358,7 @@ export function ventilationPart(
         estimated: ref.kind !== 'baseline' || ref.estimated.pco2,
       }),
     );
-  return out;
+  return { ventilation: out, deadSpace: vd };
 }
 
 /** The patient's usual PaCO2 in chronic hypercapnia: stated, estimated from the baseline, or from the chronic HCO3. */

@@ -9,7 +9,7 @@ import {
   type Findings,
   type InterpretOptions,
 } from '../calc/index.ts';
-import { MAX_PREVIOUS_GASES } from '../calc/schema.ts';
+import { MAX_PREVIOUS_GASES } from '../calc/index.ts';
 import {
   STEPS,
   STEP_IDS,

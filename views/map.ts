@@ -3,24 +3,29 @@
 // calc/ (the Henderson equation and the compensation rules); this file only places and words them.
 // No inline style, no script: presentation attributes and class names only (strict CSP).
 import type { Findings } from '../calc/index.ts';
-import type { Gas } from '../calc/canonical.ts';
-import type { Band, ReferencePoint } from '../calc/compensation.ts';
 import {
-  metabolicAlkalosisPco2,
-  respiratoryAcidosisHco3,
-  respiratoryAlkalosisHco3,
-  wintersPco2,
-} from '../calc/compensation.ts';
-import {
+  acidBase,
+  compensation,
+  reference,
+  units,
+  type Band,
+  type Gas,
+  type PressureUnit,
+  type ReferencePoint,
+} from '../calc/index.ts';
+
+const { metabolicAlkalosisPco2, respiratoryAcidosisHco3, respiratoryAlkalosisHco3, wintersPco2 } =
+  compensation;
+const {
   hendersonBicarbonate,
   hendersonConsistency,
   hendersonHydrogenIon,
   hendersonPco2,
   hydrogenIon,
   phFromHydrogenIon,
-} from '../calc/acidBase.ts';
-import { NORMAL } from '../calc/reference.ts';
-import { mmHgToKpa, type PressureUnit } from '../calc/units.ts';
+} = acidBase;
+const { NORMAL } = reference;
+const mmHgToKpa = (mmHg: number) => mmHg / units.MMHG_PER_KPA;
 
 // ---------- geometry: the drawn window and the transforms ----------
 

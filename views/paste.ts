@@ -5,13 +5,7 @@
 // used are the ones the clinician saw.
 import { createHash } from 'node:crypto';
 import { interpret, type FieldError, type InterpretOptions } from '../calc/index.ts';
-import {
-  CHEMISTRY_RANGES,
-  CONTEXT_RANGES,
-  GAS_RANGES,
-  OXYGEN_RANGES,
-  type Range,
-} from '../calc/schema.ts';
+import { FIELD, type FieldPath, type FieldSpec } from '../calc/index.ts';
 import type { FhirResult, PasteResult, Question } from '../server/intake/index.ts';
 import { checkAnswers, contextFor, statuses, unitQuestion, type FlowState } from './flow.ts';
 import {
@@ -68,16 +62,8 @@ export const fingerprint = (text: string): string =>
 
 // ---------- labels ----------
 
-const RANGES: Record<string, Record<string, Range>> = {
-  gas: GAS_RANGES,
-  chemistry: CHEMISTRY_RANGES,
-  oxygen: OXYGEN_RANGES,
-  context: CONTEXT_RANGES,
-};
-
-function rangeOf(path: string): Range | null {
-  const [group, key] = path.split('.');
-  return (group && key && RANGES[group]?.[key]) || null;
+function rangeOf(path: string): FieldSpec | null {
+  return FIELD[path as FieldPath] ?? null;
 }
 
 /** The name of a case field as the steps call it. */
@@ -323,7 +309,7 @@ export function controlOf(q: Question): Control {
       };
   }
   const range = rangeOf(q.path);
-  const unitFree = q.path === 'oxygen.fio2' || (range !== null && !range.kind);
+  const unitFree = q.path === 'oxygen.fio2' || (range !== null && !range.quantity);
   if (unitFree && options.length && options.every((o) => /^-?\d+(\.\d+)?$/.test(o))) {
     const unit = q.path === 'oxygen.fio2' ? '' : (range?.unit ?? '');
     return {

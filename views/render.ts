@@ -10,7 +10,7 @@ import {
   type Findings,
   type InterpretOptions,
 } from '../calc/index.ts';
-import { GAS_RANGES, MAX_PREVIOUS_GASES } from '../calc/schema.ts';
+import { FIELD, MAX_PREVIOUS_GASES, enteredUnit, type FieldPath } from '../calc/index.ts';
 import type { NoteRenderer } from '../templates/index.ts';
 import {
   STEPS,
@@ -385,18 +385,14 @@ function earlierView(g: Json, index: number, count: number, ctx: StepContext) {
     const [group, key] = path.split('.') as [string, string];
     const value = (g[group] as Json | undefined)?.[key];
     if (typeof value !== 'number') continue;
-    const range = group === 'gas' ? GAS_RANGES[key as keyof typeof GAS_RANGES] : null;
+    const range = group === 'gas' ? FIELD[path as FieldPath] : null;
     const label =
       path === 'gas.pco2'
         ? gasLabel(ctx.sample, 'CO2')
         : path === 'gas.po2'
           ? gasLabel(ctx.sample, 'O2')
           : name;
-    const unit = range
-      ? range.kind
-        ? U.unitLabel(range.kind, ctx.units)
-        : range.unit
-      : (EARLIER_UNITS[path] ?? '');
+    const unit = range ? enteredUnit(range, ctx.units) : (EARLIER_UNITS[path] ?? '');
     phrases.push(`${label} ${value}${unit ? (unit === '/min' ? unit : ` ${unit}`) : ''}`);
   }
   const when = [typeof g.takenAt === 'string' ? g.takenAt.replace('T', ' ') : null, g.label]

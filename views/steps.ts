@@ -3,17 +3,13 @@
 // ("gas.ph"), so a schema error's path points straight at its field.
 // Labels and units come from the schema's ranges; no range is repeated here.
 import {
-  CHEMISTRY_RANGES,
-  CONTEXT_RANGES,
-  GAS_RANGES,
-  OXYGEN_RANGES,
-  PATIENT_RANGES,
-  VENTILATOR_RANGES,
+  FIELD,
+  enteredUnit,
   resolveUnits,
+  type FieldPath,
   type ParsedCase,
-  type Range,
-} from '../calc/schema.ts';
-import { units as U, type FieldError } from '../calc/index.ts';
+} from '../calc/index.ts';
+import type { units as U, FieldError } from '../calc/index.ts';
 
 export type Json = Record<string, unknown>;
 
@@ -158,19 +154,16 @@ export function contextOf(answers: Json, respiratory: boolean | null): StepConte
 }
 
 const kpa = (ctx: StepContext) => ctx.units.pressure === 'kPa';
-const unitOf = (range: Range, ctx: StepContext) =>
-  range.kind ? U.unitLabel(range.kind, ctx.units) : range.unit;
 const num = (
-  name: string,
-  range: Range,
+  name: FieldPath,
   ctx: StepContext,
   extra: Partial<Extract<FieldDef, { kind: 'number' }>> = {},
 ): FieldDef => ({
   kind: 'number',
   name,
-  label: range.label,
-  unit: unitOf(range, ctx),
-  negative: range.min < 0,
+  label: FIELD[name].label,
+  unit: enteredUnit(FIELD[name], ctx.units),
+  negative: FIELD[name].range[0] < 0,
   ...extra,
 });
 
@@ -232,16 +225,16 @@ const gas: StepDef = {
           { value: 'kPa', label: 'kPa', json: 'kPa' },
         ],
       },
-      num('gas.ph', GAS_RANGES.ph, ctx),
-      num('gas.pco2', GAS_RANGES.pco2, ctx, { label: gasLabel(ctx.sample, 'CO2') }),
+      num('gas.ph', ctx),
+      num('gas.pco2', ctx, { label: gasLabel(ctx.sample, 'CO2') }),
     ];
-    if (arterial(ctx)) main.push(num('gas.po2', GAS_RANGES.po2, ctx));
-    main.push(num('gas.hco3', GAS_RANGES.hco3, ctx));
-    const optional: FieldDef[] = [num('gas.baseExcess', GAS_RANGES.baseExcess, ctx)];
-    if (arterial(ctx)) optional.push(num('gas.sao2', GAS_RANGES.sao2, ctx));
+    if (arterial(ctx)) main.push(num('gas.po2', ctx));
+    main.push(num('gas.hco3', ctx));
+    const optional: FieldDef[] = [num('gas.baseExcess', ctx)];
+    if (arterial(ctx)) optional.push(num('gas.sao2', ctx));
     optional.push(
-      num('gas.lactate', GAS_RANGES.lactate, ctx),
-      num('gas.hb', GAS_RANGES.hb, ctx, {
+      num('gas.lactate', ctx),
+      num('gas.hb', ctx, {
         unit: '',
         unitChoice: {
           name: 'units.hb',
@@ -253,7 +246,7 @@ const gas: StepDef = {
           fallback: siFirst(ctx, 'g/L', 'g/dL'),
         },
       }),
-      num('context.temperatureC', CONTEXT_RANGES.temperatureC, ctx, {
+      num('context.temperatureC', ctx, {
         label: 'Patient temperature',
       }),
     );
@@ -282,10 +275,10 @@ const chemistry: StepDef = {
   groups: (ctx) => [
     {
       fields: [
-        num('chemistry.na', CHEMISTRY_RANGES.na, ctx),
-        num('chemistry.k', CHEMISTRY_RANGES.k, ctx),
-        num('chemistry.cl', CHEMISTRY_RANGES.cl, ctx),
-        num('chemistry.albumin', CHEMISTRY_RANGES.albumin, ctx, {
+        num('chemistry.na', ctx),
+        num('chemistry.k', ctx),
+        num('chemistry.cl', ctx),
+        num('chemistry.albumin', ctx, {
           unit: '',
           unitChoice: {
             name: 'units.albumin',
@@ -297,7 +290,7 @@ const chemistry: StepDef = {
             fallback: siFirst(ctx, 'g/L', 'g/dL'),
           },
         }),
-        num('chemistry.glucose', CHEMISTRY_RANGES.glucose, ctx, {
+        num('chemistry.glucose', ctx, {
           unit: '',
           unitChoice: {
             name: 'units.glucose',
@@ -309,7 +302,7 @@ const chemistry: StepDef = {
             fallback: siFirst(ctx, 'mmol/L', 'mg/dL'),
           },
         }),
-        num('chemistry.urea', CHEMISTRY_RANGES.urea, ctx, {
+        num('chemistry.urea', ctx, {
           label: 'Urea or BUN',
           unit: '',
           unitChoice: {
@@ -322,10 +315,10 @@ const chemistry: StepDef = {
             fallback: siFirst(ctx, 'urea-mmol/L', 'bun-mg/dL'),
           },
         }),
-        num('chemistry.osmolality', CHEMISTRY_RANGES.osmolality, ctx, {
+        num('chemistry.osmolality', ctx, {
           label: 'Measured osmolality',
         }),
-        num('chemistry.creatinine', CHEMISTRY_RANGES.creatinine, ctx, {
+        num('chemistry.creatinine', ctx, {
           unit: '',
           unitChoice: {
             name: 'units.creatinine',
@@ -366,9 +359,9 @@ const timing: StepDef = {
     {
       legend: "The patient's usual values, if known",
       fields: [
-        num('context.baseline.pco2', GAS_RANGES.pco2, ctx, { label: 'Usual PaCO2' }),
-        num('context.baseline.hco3', GAS_RANGES.hco3, ctx, { label: 'Usual HCO3' }),
-        num('context.baseline.ph', GAS_RANGES.ph, ctx, { label: 'Usual pH' }),
+        num('context.baseline.pco2', ctx, { label: 'Usual PaCO2' }),
+        num('context.baseline.hco3', ctx, { label: 'Usual HCO3' }),
+        num('context.baseline.ph', ctx, { label: 'Usual pH' }),
       ],
     },
   ],
@@ -393,7 +386,7 @@ const oxygen: StepDef = {
         unit: '',
         hint: 'A fraction (0.4) or a percent (40). Room air is 0.21.',
       });
-    fields.push(num('oxygen.peep', OXYGEN_RANGES.peep, ctx, { label: 'PEEP or CPAP' }), {
+    fields.push(num('oxygen.peep', ctx, { label: 'PEEP or CPAP' }), {
       kind: 'choice',
       name: 'ventilated',
       label: 'On a ventilator?',
@@ -405,10 +398,7 @@ const oxygen: StepDef = {
     });
     // SpO2 with FiO2 gives the SpO2/FiO2 ratio; after the ventilator question, so that the first three stay in reach
     return arterial(ctx)
-      ? [
-          { fields },
-          { legend: 'If you have it', fields: [num('oxygen.spo2', OXYGEN_RANGES.spo2, ctx)] },
-        ]
+      ? [{ fields }, { legend: 'If you have it', fields: [num('oxygen.spo2', ctx)] }]
       : [{ fields }];
   },
   skipReason: () => null,
@@ -438,10 +428,10 @@ const ventilator: StepDef = {
   groups: (ctx) => [
     {
       fields: [
-        num('ventilator.vt', VENTILATOR_RANGES.vt, ctx),
-        num('ventilator.rr', VENTILATOR_RANGES.rr, ctx),
-        num('ventilator.pplat', VENTILATOR_RANGES.pplat, ctx),
-        num('patient.heightCm', PATIENT_RANGES.heightCm, ctx),
+        num('ventilator.vt', ctx),
+        num('ventilator.rr', ctx),
+        num('ventilator.pplat', ctx),
+        num('patient.heightCm', ctx),
         {
           kind: 'choice',
           name: 'patient.sex',
@@ -455,10 +445,7 @@ const ventilator: StepDef = {
     },
     {
       legend: 'Target (one of the two)',
-      fields: [
-        num('ventilator.targetPh', VENTILATOR_RANGES.targetPh, ctx),
-        num('ventilator.targetPco2', VENTILATOR_RANGES.targetPco2, ctx),
-      ],
+      fields: [num('ventilator.targetPh', ctx), num('ventilator.targetPco2', ctx)],
     },
   ],
   skipReason: (ctx) =>
@@ -488,7 +475,7 @@ const patient: StepDef = {
   title: 'Patient',
   question: 'About the patient.',
   groups: (ctx) => {
-    const fields: FieldDef[] = [num('patient.ageYears', PATIENT_RANGES.ageYears, ctx)];
+    const fields: FieldDef[] = [num('patient.ageYears', ctx)];
     if (getPath(ctx.answers, 'patient.sex') !== 'male') {
       fields.push({
         kind: 'choice',

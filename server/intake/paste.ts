@@ -3,20 +3,19 @@
 // Pure: no I/O. A value is filled only when its field and unit are clear; anything else becomes a question.
 // Nothing here converts a unit: the case carries the clinician's units and calc/ converts once, at its edge.
 import {
-  CHEMISTRY_RANGES,
-  GAS_RANGES,
-  OXYGEN_RANGES,
-  checkFio2,
-  type Range,
-} from '../../calc/schema.ts';
-import {
-  DEFAULT_UNITS,
-  kpaToMmHg,
-  toCanonical,
+  FIELD,
+  acidBase,
+  inRange,
+  resolveUnits,
+  units as U,
+  type FieldPath,
+  type FieldSpec,
   type PressureUnit,
   type Units,
-} from '../../calc/units.ts';
-import { hendersonPco2, hydrogenIon } from '../../calc/acidBase.ts';
+} from '../../calc/index.ts';
+
+const { hendersonPco2, hydrogenIon } = acidBase;
+const kpaToMmHg = (kpa: number) => kpa * U.MMHG_PER_KPA;
 import {
   missingGas,
   setCaseValue,
@@ -523,7 +522,8 @@ function shorthandRuns(line: string): ShorthandRun[] {
   for (let m = SHORTHAND_RUN.exec(line); m; m = SHORTHAND_RUN.exec(line)) {
     const parts = m[0].split('/').map((p) => p.trim());
     const ph = Number(parts[0]!.replace(',', '.'));
-    if (!PH_LIKE.test(parts[0]!) || ph < GAS_RANGES.ph.min || ph > GAS_RANGES.ph.max) continue;
+    if (!PH_LIKE.test(parts[0]!) || ph < FIELD['gas.ph'].range[0] || ph > FIELD['gas.ph'].range[1])
+      continue;
     let end = m.index + m[0].length;
     const u = /^\s*[([]?\s*(kpa|mm\s?hg|torr)\s*[)\]]?(?![a-z])/i.exec(line.slice(end));
     const unit: PressureUnit | null = u ? (/kpa/i.test(u[1]!) ? 'kPa' : 'mmHg') : null;
@@ -591,25 +591,7 @@ const WINDOWS = {
 
 const inWindow = (v: number, w: Window): boolean => v >= w.min && v <= w.max;
 
-const RANGE_OF: Partial<Record<CasePath, Range>> = {
-  'gas.ph': GAS_RANGES.ph,
-  'gas.pco2': GAS_RANGES.pco2,
-  'gas.po2': GAS_RANGES.po2,
-  'gas.hco3': GAS_RANGES.hco3,
-  'gas.baseExcess': GAS_RANGES.baseExcess,
-  'gas.sao2': GAS_RANGES.sao2,
-  'gas.lactate': GAS_RANGES.lactate,
-  'gas.hb': GAS_RANGES.hb,
-  'chemistry.na': CHEMISTRY_RANGES.na,
-  'chemistry.k': CHEMISTRY_RANGES.k,
-  'chemistry.cl': CHEMISTRY_RANGES.cl,
-  'chemistry.albumin': CHEMISTRY_RANGES.albumin,
-  'chemistry.glucose': CHEMISTRY_RANGES.glucose,
-  'chemistry.urea': CHEMISTRY_RANGES.urea,
-  'chemistry.creatinine': CHEMISTRY_RANGES.creatinine,
-  'chemistry.osmolality': CHEMISTRY_RANGES.osmolality,
-  'oxygen.spo2': OXYGEN_RANGES.spo2,
-};
+const RANGE_OF = FIELD as Partial<Record<CasePath, FieldSpec>>;
 
 const LABEL_OF: Record<CasePath, string> = {
   'gas.ph': 'pH',
@@ -635,17 +617,8 @@ const LABEL_OF: Record<CasePath, string> = {
 
 /** Is the value inside the schema's range once read in these units? (the same check the API makes) */
 function passesSchema(path: CasePath, value: number, units: Partial<Units>): boolean {
-  if (path === 'oxygen.fio2') {
-    const errors: { path: string; message: string }[] = [];
-    checkFio2(value, path, errors);
-    return errors.length === 0;
-  }
-  const range = RANGE_OF[path];
-  if (!range) return true;
-  const canonical = range.kind
-    ? toCanonical(range.kind, value, { ...DEFAULT_UNITS, ...units })
-    : value;
-  return canonical >= range.min && canonical <= range.max;
+  const field = FIELD[path as FieldPath];
+  return !field || inRange(field, value, resolveUnits(units));
 }
 
 // ---------- collecting ----------
@@ -1121,7 +1094,7 @@ type Fill = (
 const outside = (path: CasePath, cand: Candidate, unit: string): Question => {
   const range = RANGE_OF[path];
   const shown = range
-    ? ` (plausible range ${range.min}-${range.max}${range.unit ? ` ${range.unit}` : ''})`
+    ? ` (plausible range ${range.range[0]}-${range.range[1]}${range.unit ? ` ${range.unit}` : ''})`
     : '';
   return {
     path,

@@ -5,18 +5,53 @@ import fc from 'fast-check';
 import { expect } from 'vitest';
 import { interpret, type CaseInput, type Findings, type Rejected } from '../../calc/index.ts';
 import {
-  GAS_RANGES,
-  CHEMISTRY_RANGES,
-  URINE_RANGES,
-  PATIENT_RANGES,
-  CONTEXT_RANGES,
-  OXYGEN_RANGES,
-  VENTILATOR_RANGES,
-  SETTINGS_RANGES,
-  FIO2_RANGE,
-  type Range,
-} from '../../calc/schema.ts';
-import { fromCanonical, type Units } from '../../calc/units.ts';
+  fieldsOf,
+  keyOf,
+  units as U,
+  type KeysOf,
+  type Quantity,
+  type Units,
+} from '../../calc/index.ts';
+
+const { fromCanonical } = U;
+
+/** A group's plausibility ranges, read from the table of fields (canonical units). */
+export interface Range {
+  label: string;
+  min: number;
+  max: number;
+  unit: string;
+  kind?: Quantity;
+  decimals: number;
+}
+const rangesOf = <G extends string>(group: G) =>
+  Object.fromEntries(
+    fieldsOf(group)
+      .filter((f) => f.path !== 'oxygen.fio2')
+      .map((f) => [
+        keyOf(f),
+        {
+          label: f.label,
+          min: f.range[0],
+          max: f.range[1],
+          unit: f.unit,
+          kind: f.quantity,
+          decimals: f.decimals,
+        },
+      ]),
+  ) as Record<KeysOf<G>, Range>;
+export const GAS_RANGES = rangesOf('gas');
+export const CHEMISTRY_RANGES = rangesOf('chemistry');
+export const URINE_RANGES = rangesOf('urine');
+export const PATIENT_RANGES = rangesOf('patient');
+export const CONTEXT_RANGES = rangesOf('context');
+export const OXYGEN_RANGES = rangesOf('oxygen');
+export const VENTILATOR_RANGES = rangesOf('ventilator');
+export const SETTINGS_RANGES = rangesOf('settings');
+export const FIO2_RANGE = {
+  fraction: { min: 0.21, max: 1.0 },
+  percent: { min: 21, max: 100 },
+} as const;
 
 /** fast-check run count: FC_RUNS in the environment, 300 by default so the suite stays fast. */
 export const FC_RUNS =

@@ -7,7 +7,12 @@ import {
   osmolarGap,
   osmolarGapRaised,
 } from '../../calc/osmolality.ts';
-import { bunMgDlToUreaMmolL, ethanolMgDlToMmolL, glucoseMgDlToMmolL } from '../../calc/units.ts';
+import { units } from '../../calc/index.ts';
+
+const conventional = units.DEFAULT_UNITS; // glucose, BUN and ethanol in mg/dL
+const glucoseMgDlToMmolL = (v: number) => units.toCanonical('glucose', v, conventional);
+const bunMgDlToUreaMmolL = (v: number) => units.toCanonical('urea', v, conventional);
+const ethanolMgDlToMmolL = (v: number) => units.toCanonical('ethanol', v, conventional);
 
 describe('calculated osmolality (Purssell et al. 2001; clinical-scope section 5)', () => {
   it.each([

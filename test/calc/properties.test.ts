@@ -10,8 +10,10 @@ import {
   PATIENT_RANGES,
   VENTILATOR_RANGES,
   type Range,
-} from '../../calc/schema.ts';
-import { fromCanonical } from '../../calc/units.ts';
+} from './helpers.ts';
+import { units } from '../../calc/index.ts';
+
+const { fromCanonical } = units;
 import { anyCase, FC_RUNS, numbersIn, UNIT_SYSTEMS } from './helpers.ts';
 
 const params = { numRuns: FC_RUNS };

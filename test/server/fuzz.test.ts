@@ -19,9 +19,9 @@ import {
   OXYGEN_RANGES,
   PATIENT_RANGES,
   VENTILATOR_RANGES,
-  parseCase,
   type Range,
-} from '../../calc/schema.ts';
+} from '../calc/helpers.ts';
+import { parseCase } from '../../calc/index.ts';
 import { STEPS, STEP_IDS, contextOf, ownedPaths } from '../../views/steps.ts';
 
 const RUNS = Number.parseInt(process.env.FUZZ_RUNS ?? '', 10) || 300;

@@ -5,7 +5,7 @@
 import { describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app.ts';
 import { interpret } from '../../calc/index.ts';
-import { MAX_PREVIOUS_GASES } from '../../calc/schema.ts';
+import { MAX_PREVIOUS_GASES } from '../../calc/index.ts';
 import { createNoteRenderer } from '../../templates/index.ts';
 import { caseOf, openId, openStep, stateOf, textareaOf, poster, type Fields } from './pageHtml.ts';
 
