@@ -1,7 +1,7 @@
 // The view model: Findings turned into display-ready strings and plain switches for the .njk files.
 // All choosing of numbers and units happens here; all wording and order live in the templates.
-import { reference as R, units as U } from '../calc/index.ts';
-import type { Disorder, Findings, Flag } from '../calc/index.ts';
+import { fieldsOf, keyOf, reference as R, units as U } from '../calc/index.ts';
+import type { Disorder, FieldPath, Findings, Flag } from '../calc/index.ts';
 import { formatter, type Formatter, type Text } from './format.ts';
 import { co2Label, flagView, limits, o2Label, type FlagView } from './flagView.ts';
 
@@ -110,16 +110,8 @@ export interface NoteView {
     chlorideResponsive: boolean | null;
     chlorideLimit: Text;
   };
-  chemistry: {
-    na: Text;
-    k: Text;
-    cl: Text;
-    albumin: Text;
-    glucose: Text;
-    urea: Text;
-    creatinine: Text;
-    osmolality: Text;
-  };
+  /** each chemistry value by key, and `list`: the given ones in table order with their labels */
+  chemistry: { values: Record<string, Text>; list: { label: string; text: string }[] };
   lactateLimits: { raised: Text; high: Text };
   oxygenation: {
     assessable: boolean;
@@ -335,7 +327,7 @@ export function buildView(f: Findings, format: NoteFormat): NoteView {
         value: fmt.mmol(d.anionGap),
         corrected: fmt.mmol(d.anionGapCorrected),
         usedCorrected: m.anionGapUsed === 'corrected',
-        albumin: fmt.albumin(ch.albumin),
+        albumin: fmt.field('chemistry.albumin', ch.albumin),
         includesK: m.anionGapIncludesK,
         upper: fmt.mmol(m.anionGapUpperLimit),
         raised: m.anionGapRaised === true,
@@ -470,7 +462,7 @@ export function buildView(f: Findings, format: NoteFormat): NoteView {
     sfLimit: fmt.plain(R.OXYGENATION.sfThreshold, 0),
     sfSpo2Max: fmt.withUnit(R.OXYGENATION.sfMaxSpo2, 0, '%'),
     sao2: fmt.withUnit(g.sao2, 0, '%'),
-    hb: fmt.hb(g.hb),
+    hb: fmt.field('gas.hb', g.hb),
     content: fmt.withUnit(d.oxygenContent, 1, 'mL/dL'),
     hypoxaemiaBelow: fmt.pressure(R.OXYGENATION.hypoxaemia),
     failureBelow: fmt.pressure(R.OXYGENATION.respiratoryFailure),
@@ -603,7 +595,7 @@ export function buildView(f: Findings, format: NoteFormat): NoteView {
       baseExcess: fmt.mmol(g.baseExcess),
       sbe: fmt.mmol(d.standardBaseExcess),
       sao2: fmt.withUnit(g.sao2, 0, '%'),
-      hb: fmt.hb(g.hb),
+      hb: fmt.field('gas.hb', g.hb),
     },
     withheldInfo: withheld
       ? {
@@ -660,16 +652,7 @@ export function buildView(f: Findings, format: NoteFormat): NoteView {
       chlorideResponsive: m.urineChlorideResponsive,
       chlorideLimit: fmt.mmol(R.URINE_CHLORIDE_RESPONSIVE, 0),
     },
-    chemistry: {
-      na: fmt.mmol(ch.na, 0),
-      k: fmt.mmol(ch.k),
-      cl: fmt.mmol(ch.cl, 0),
-      albumin: fmt.albumin(ch.albumin),
-      glucose: fmt.glucose(ch.glucose),
-      urea: fmt.urea(ch.urea),
-      creatinine: fmt.creatinine(ch.creatinine),
-      osmolality: fmt.withUnit(ch.osmolality, 0, 'mOsm/kg'),
-    },
+    chemistry: chemistryView(f, fmt),
     lactateLimits: { raised: fmt.mmol(R.LACTATE.raised), high: fmt.mmol(R.LACTATE.high) },
     oxygenation,
     venous,
@@ -716,3 +699,33 @@ function serialView(f: Findings, fmt: Formatter) {
     unavailable: serial.predictionUnavailable,
   };
 }
+
+/**
+ * The chemistry as the note lists it: every value of the chemistry group of the table of fields that was given,
+ * in table order, with its label as it reads mid-sentence ("albumin", but "Na" and "BUN") and its value in the
+ * clinician's unit. `values` gives each one by key for the templates that pick a few.
+ */
+function chemistryView(f: Findings, fmt: Formatter): NoteView['chemistry'] {
+  const list: { label: string; text: string }[] = [];
+  const values: Record<string, Text> = {};
+  for (const field of fieldsOf('chemistry')) {
+    const key = keyOf(field);
+    const text = fmt.field(
+      field.path as FieldPath,
+      f.case.chemistry[key as keyof typeof f.case.chemistry],
+    );
+    values[key] = text;
+    if (text === null) continue;
+    const named = field.quantity ? U.unitDef(field.quantity, f.units).name : undefined;
+    list.push({ label: named ?? midSentence(field.label), text });
+  }
+  return { values, list };
+}
+
+/** A label as it reads inside a sentence: a plain word goes lower-case, symbols and abbreviations stay. */
+const midSentence = (label: string): string => {
+  const first = label.split(' ')[0]!;
+  return first.length > 2 && /^[A-Z][a-z]+$/.test(first)
+    ? label[0]!.toLowerCase() + label.slice(1)
+    : label;
+};
