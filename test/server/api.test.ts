@@ -1,7 +1,9 @@
 // The JSON API end to end with app.request, against ../shared/interface-contract.md.
 import { describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app.ts';
-import { MMHG_PER_KPA } from '../../calc/units.ts';
+import { units } from '../../calc/index.ts';
+
+const { MMHG_PER_KPA } = units;
 
 const app = createApp();
 

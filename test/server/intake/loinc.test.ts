@@ -2,7 +2,9 @@
 import { createRequire } from 'node:module';
 import { describe, expect, it } from 'vitest';
 import { LOINC_CODES, LOINC_NOT_READ, UCUM } from '../../../server/intake/index.ts';
-import { toCanonical, DEFAULT_UNITS } from '../../../calc/units.ts';
+import { units } from '../../../calc/index.ts';
+
+const { toCanonical, DEFAULT_UNITS } = units;
 
 const ucum = createRequire(import.meta.url)('@lhncbc/ucum-lhc').UcumLhcUtils.getInstance();
 
