@@ -25,6 +25,7 @@ export {
   rangeErrors,
   rangeText,
   toFieldErrors,
+  withoutInvisible,
 } from './schema.ts';
 export type { CaseInput, FieldError, ParsedCase, SafeParse } from './schema.ts';
 export {

@@ -5,7 +5,7 @@ import { originCheck, securityHeaders } from './security.ts';
 import { apiRoutes } from './api.ts';
 import { pageRoutes } from './page.ts';
 import { jsonError } from './errors.ts';
-import { createNoteRenderer, type NoteRenderer } from '../templates/index.ts';
+import { createNoteRenderer, TemplateError, type NoteRenderer } from '../templates/index.ts';
 import type { InterpretOptions } from '../calc/index.ts';
 
 export interface AppOptions {
@@ -17,6 +17,8 @@ export interface AppOptions {
   allowedOrigins?: string[];
   /** request log sink: method, path, status and time only, never a value from a case */
   log?: (line: string) => void;
+  /** where faults of ours are reported (default stderr): a class and a name, never a value from a case */
+  errorLog?: (line: string) => void;
 }
 
 export function createApp(options: AppOptions = {}): Hono {
@@ -55,6 +57,9 @@ export function createApp(options: AppOptions = {}): Hono {
         );
       return jsonError(c, status as 400, err.message || 'Bad request');
     }
+    // a template that fails is named, with its error class, and nothing of the case (a department's folder is code)
+    if (err instanceof TemplateError)
+      (options.errorLog ?? console.error)(`note template error: ${err.kind} in ${err.template}`);
     // a fault of ours, not of the request: say so without echoing anything from it
     return jsonError(c, 500, 'Internal error: the request was not processed');
   });

@@ -1,7 +1,7 @@
 // What every part of the note's view model works from: the findings, the formatter in the clinician's units,
 // and the switches the parts share. The parts (viewAcidBase, viewOxygen, viewVentilation, viewPlan) each turn
 // one section of the findings into display-ready strings; view.ts puts them together.
-import type { Disorder, Findings } from '../calc/index.ts';
+import { withoutInvisible, type Disorder, type Findings } from '../calc/index.ts';
 import type { Formatter, Text } from './format.ts';
 
 export type NoteFormat = 'text' | 'markdown';
@@ -29,13 +29,20 @@ export function context(f: Findings, fmt: Formatter, format: NoteFormat): Ctx {
   };
 }
 
-/** Free text from the request (labels, times): one line, and inert in Markdown. */
+/**
+ * Free text from the request (labels, times): one line, no invisible controls, and inert in Markdown: every
+ * character a common renderer reads as markup is escaped, the ":" and "." of "https://" and "www." included, so
+ * that no renderer (GitHub-style autolinks too) turns it into a link or HTML.
+ */
 export function freeText(value: string | null, md: boolean): Text {
   if (!value) return null;
-  const line = value
-    .replace(/[\u0000-\u001f\u007f]+/g, ' ')
+  const line = withoutInvisible(value)
+    .replace(/[\u0000-\u001f\u007f-\u009f]+/g, ' ')
     .replace(/\s+/g, ' ')
     .trim();
   if (!line) return null;
-  return md ? line.replace(/([\\`*_[\]<>#|~])/g, '\\$1') : line;
+  if (!md) return line;
+  // markup characters always; ":" and "." after a letter ("https:", "www.", "example.org"), so that times and
+  // decimals ("04:10", "7.31") read as written while no scheme, domain or e-mail address (with its @) stays whole
+  return line.replace(/([\\`*_[\]<>#|~()!&@])/g, '\\$1').replace(/(?<=[A-Za-z])([:.])/g, '\\$1');
 }
