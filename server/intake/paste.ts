@@ -16,14 +16,30 @@ import {
 
 const { hendersonPco2, hydrogenIon } = acidBase;
 const kpaToMmHg = (kpa: number) => kpa * U.MMHG_PER_KPA;
-import {
-  missingGas,
-  setCaseValue,
-  type CasePath,
-  type IntakeCase,
-  type Question,
-  type Sample,
-} from './loinc.ts';
+import type { CaseInput as IntakeCase } from '../../calc/index.ts';
+import { missingGas, setCaseValue, type Question, type Sample } from './case.ts';
+
+/** The case fields the paste reader fills. */
+type CasePath =
+  | 'gas.ph'
+  | 'gas.pco2'
+  | 'gas.po2'
+  | 'gas.hco3'
+  | 'gas.baseExcess'
+  | 'gas.sao2'
+  | 'gas.lactate'
+  | 'gas.hb'
+  | 'chemistry.na'
+  | 'chemistry.k'
+  | 'chemistry.cl'
+  | 'chemistry.albumin'
+  | 'chemistry.glucose'
+  | 'chemistry.urea'
+  | 'chemistry.creatinine'
+  | 'chemistry.osmolality'
+  | 'oxygen.fio2'
+  | 'oxygen.spo2'
+  | 'context.temperatureC';
 
 // ---------- public shapes ----------
 
@@ -684,7 +700,7 @@ export function parsePaste(text: string): PasteResult {
       path: '(text)',
       reason: `The text is longer than ${MAX_PASTE_CHARS} characters: paste the result lines only`,
     });
-    result.missing = missingGas(result.case);
+    result.missing = missingGas(result.case) as CasePath[];
     return result;
   }
   const rawLines = stripHtml(input).split(/\r\n|\r|\n/);
@@ -1078,7 +1094,7 @@ function resolve(col: Collector, result: PasteResult): void {
 
   addHendersonSuggestion(result);
   decideSample(col, result, ask);
-  result.missing = missingGas(c, pending);
+  result.missing = missingGas(c, pending) as CasePath[];
 }
 
 type Ask = (q: Question) => void;
@@ -1428,7 +1444,7 @@ function decideOne(path: CasePath, cand: Candidate, ask: Ask, fill: Fill): void 
 function addHendersonSuggestion(result: PasteResult): void {
   const ph = result.case.gas.ph,
     hco3 = result.case.gas.hco3;
-  if (ph === undefined || hco3 === undefined) return;
+  if (typeof ph !== 'number' || typeof hco3 !== 'number') return;
   const expected = hendersonPco2(hydrogenIon(ph), hco3); // mmHg
   for (const q of result.questions) {
     if (q.path !== 'gas.pco2' || q.value === undefined || !q.options?.includes('kPa')) continue;
