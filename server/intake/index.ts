@@ -1,8 +1,11 @@
 // Intake: outside text (a pasted printout, a FHIR R4 payload) -> a draft case of the interface contract.
 // Each intake says what it read, what it must ask, and what it did not use; a draft goes through the
-// case schema (calc's parseCase) like any other case before anything is worked out from it.
-export { parsePaste, parseShorthand, MAX_PASTE_CHARS } from './paste.ts';
-export type { PasteResult, ReadValue, Skipped, Shorthand, UnitSource } from './paste.ts';
+// case schema (calc's parseCase) like any other case before anything is worked out from it. Both intakes read
+// calc's table of fields (labels, units, ranges, printout labels, LOINC codes) through calc/index.ts only.
+export { parsePaste } from './paste/parse.ts';
+export { parseShorthand } from './paste/shorthand.ts';
+export { MAX_PASTE_CHARS } from './paste/types.ts';
+export type { PasteResult, ReadValue, Skipped, Shorthand, UnitSource } from './paste/types.ts';
 export { caseFromFhir } from './fhir/read.ts';
 export type {
   FhirConversion,

@@ -3,7 +3,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { parsePaste, type PasteResult } from '../../../server/intake/index.ts';
-import type { CaseInput } from '../../../calc/index.ts';
+import { FIELD, type CaseInput, type FieldPath } from '../../../calc/index.ts';
 
 const RUNS = Number(process.env.FC_RUNS ?? 300);
 
@@ -202,6 +202,11 @@ const LABEL_WORDS = [
   'PAO2',
   'Base deficit',
   'tCO2',
+  'Ca++',
+  'iCa',
+  'Ca',
+  'Mg',
+  'PO4',
 ];
 const UNIT_WORDS = [
   'mmHg',
@@ -290,7 +295,6 @@ const caseNumbers = (c: CaseInput): number[] =>
   [c.gas, c.chemistry ?? {}, c.oxygen ?? {}, c.context ?? {}].flatMap((g) =>
     Object.values(g as Record<string, number>),
   );
-
 const valueAt = (c: CaseInput, path: string): unknown =>
   path
     .split('.')
@@ -300,7 +304,16 @@ describe('no text puts a number into the case that it does not contain', () => {
   const check = (text: string) => {
     const r = parsePaste(text);
     const written = numbersIn(text);
-    for (const v of caseNumbers(r.case)) expect(written.has(Math.abs(v))).toBe(true);
+    // a value read from mEq/L is the written number over the ion's charge (the table's); any other is as written
+    const fromMeq = new Map(r.read.filter((x) => x.written).map((x) => [x.value, x]));
+    for (const v of caseNumbers(r.case)) {
+      const x = fromMeq.get(v);
+      if (x) {
+        expect(x.written!.unit).toBe('mEq/L');
+        expect(x.value * FIELD[x.path as FieldPath].charge!).toBeCloseTo(x.written!.value, 10);
+        expect(written.has(Math.abs(x.written!.value))).toBe(true);
+      } else expect(written.has(Math.abs(v))).toBe(true);
+    }
     // what is read is what is in the case, and its source is in the text
     for (const x of r.read) {
       expect(valueAt(r.case, x.path)).toBe(x.value);
