@@ -207,10 +207,10 @@ export function intakeOf(raw: RawIntake, text: string): Intake {
       text: [u.code, u.display].filter(Boolean).join(' ') || u.source,
       reason: u.reason,
     });
-  for (const s of r.superseded) {
+  for (const s of r.earlier) {
     out.setAside.push({
       text: `${labelOf(s.path, sample)} ${s.value}${s.unit ? ` ${s.unit}` : ''}${s.effective ? ` (${s.effective})` : ''}`,
-      reason: 'an older result; the latest one is read',
+      reason: s.reason,
     });
   }
   out.notes = r.notes;
