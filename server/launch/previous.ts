@@ -1,11 +1,9 @@
 // Earlier gases as the case's `previous` entries: each earlier sample read on its own through the FHIR reader,
 // kept when the reader finds at least two of pH, PaCO2 and HCO3 in the newest gas's pressure unit.
 // Interim: the FHIR reader is to give earlier gases as `previous` itself; this then gives way to it.
+import { MAX_PREVIOUS_GASES } from '../../calc/index.ts';
 import { caseFromFhir } from '../intake/index.ts';
 import type { Placed } from './gases.ts';
-
-/** The most earlier gases a case holds (the case schema's limit; a test holds the two equal). */
-export const MAX_PREVIOUS_GASES = 20;
 
 type Json = Record<string, unknown>;
 

@@ -1,6 +1,8 @@
 // The app with its launch on, on a loopback port, beside the test record (SMART server and FHIR endpoint), and a
 // small cookie-keeping client that follows redirects across the two, as a browser would for these GETs and posts.
+import { readdirSync, statSync } from 'node:fs';
 import type { AddressInfo } from 'node:net';
+import { join } from 'node:path';
 import { serve, type ServerType } from '@hono/node-server';
 import type { Hono } from 'hono';
 import { createApp } from '../../server/app.ts';
@@ -21,7 +23,8 @@ export interface Running {
 
 export interface LaunchTestOptions
   extends Partial<Omit<SmartOptions, 'clientId' | 'redirectUri' | 'appLaunch'>> {
-  env?: Record<string, string>;
+  /** settings besides the defaults; a function to use the record's address */
+  env?: Record<string, string> | ((record: SmartServer) => Record<string, string>);
 }
 
 /** Start an app on a port, its settings built from env once the port is known. */
@@ -45,23 +48,27 @@ export async function startApp(env: (origin: string) => Record<string, string>, 
 
 export async function startLaunch(o: LaunchTestOptions = {}): Promise<Running> {
   const logs: string[] = [];
+  // the record first (its app addresses filled in below, read by it at request time), then the app
+  const options: SmartOptions = {
+    data: inventedRecord(),
+    ...o,
+    clientId: CLIENT_ID,
+    redirectUri: '',
+    appLaunch: '',
+  };
+  const record = await startSmartServer(options);
   const app = await startApp(
     (origin) => ({
       SMART_CLIENT_ID: CLIENT_ID,
       PUBLIC_URL: origin,
       SMART_FILE_BACK: 'on',
       SMART_COOKIE_KEY: TEST_KEY,
-      ...o.env,
+      ...(typeof o.env === 'function' ? o.env(record) : o.env),
     }),
     logs,
   );
-  const record = await startSmartServer({
-    data: inventedRecord(),
-    ...o,
-    clientId: CLIENT_ID,
-    redirectUri: `${app.origin}/callback`,
-    appLaunch: `${app.origin}/launch`,
-  });
+  options.redirectUri = `${app.origin}/callback`;
+  options.appLaunch = `${app.origin}/launch`;
   return {
     origin: app.origin,
     record,
@@ -182,4 +189,26 @@ export async function toDraft(agent: Agent, origin: string, html: string): Promi
     if (response.status !== 200) throw new Error(`step ${step} answered ${response.status}`);
   }
   return page;
+}
+
+/** Files under dir changed since a time (node_modules and .git aside), a few levels deep. */
+export function changedSince(dir: string, since: number, depth = 4): string[] {
+  if (depth < 0) return [];
+  let names: string[];
+  try {
+    names = readdirSync(dir);
+  } catch {
+    return [];
+  }
+  return names.flatMap((name) => {
+    if (name === 'node_modules' || name === '.git') return [];
+    const path = join(dir, name);
+    try {
+      const st = statSync(path);
+      if (st.isDirectory()) return changedSince(path, since, depth - 1);
+      return st.isFile() && st.mtimeMs >= since && st.size < 20_000_000 ? [path] : [];
+    } catch {
+      return [];
+    }
+  });
 }
