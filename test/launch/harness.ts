@@ -1,6 +1,6 @@
 // The app with its launch on, on a loopback port, beside the test record (SMART server and FHIR endpoint), and a
 // small cookie-keeping client that follows redirects across the two, as a browser would for these GETs and posts.
-import { readdirSync, statSync } from 'node:fs';
+import { readdirSync, readFileSync, statSync } from 'node:fs';
 import type { AddressInfo } from 'node:net';
 import { join } from 'node:path';
 import { serve, type ServerType } from '@hono/node-server';
@@ -209,6 +209,18 @@ export function changedSince(dir: string, since: number, depth = 4): string[] {
       return st.isFile() && st.mtimeMs >= since && st.size < 20_000_000 ? [path] : [];
     } catch {
       return [];
+    }
+  });
+}
+
+/** The files (of those given) that hold any of the secrets, as text. */
+export function filesHolding(files: string[], secrets: string[]): string[] {
+  return files.filter((file) => {
+    try {
+      const content = readFileSync(file, 'latin1');
+      return secrets.some((secret) => content.includes(secret));
+    } catch {
+      return false;
     }
   });
 }
