@@ -18,7 +18,10 @@ export function startServer(env: NodeJS.ProcessEnv = process.env) {
       `WARNING: listening on ${hostname}. Gasline has no login of its own: put it behind the hospital's authentication and reverse proxy.`,
     );
   }
-  const settings = readSettings(env, { severalProcesses: cluster.isWorker });
+  // a cluster's workers, or pods under Kubernetes (which sets KUBERNETES_SERVICE_HOST): one shared key is needed
+  const settings = readSettings(env, {
+    severalProcesses: cluster.isWorker || env.KUBERNETES_SERVICE_HOST !== undefined,
+  });
   if (!settings.ok) {
     console.error(settings.error);
     process.exit(2);

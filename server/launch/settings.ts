@@ -125,7 +125,7 @@ export function readSettings(
     return {
       ok: false,
       error:
-        'SMART_CLIENT_ID is set and several processes run: set SMART_COOKIE_KEY (the same in every process) so that any process can answer a launch',
+        'SMART_CLIENT_ID is set and several processes (or pods) may run: set SMART_COOKIE_KEY, the same in every process, so that any of them can answer a launch',
     };
   } else {
     cookieKey = new Uint8Array(randomBytes(32));
