@@ -48,6 +48,7 @@ export function createApp(options: AppOptions = {}): Hono {
   app.route('/', apiRoutes({ renderer, interpretOptions: options.interpretOptions }));
   const settings = options.launch ?? null;
   const launchViewFor = settings ? (c: Context) => launchView(settings, c) : undefined;
+  app.route('/', launch({ settings, renderer, interpretOptions: options.interpretOptions }));
   app.route(
     '/',
     pageRoutes({
@@ -56,7 +57,6 @@ export function createApp(options: AppOptions = {}): Hono {
       launchView: launchViewFor,
     }),
   );
-  app.route('/', launch({ settings, renderer, interpretOptions: options.interpretOptions }));
 
   app.notFound((c) => jsonError(c, 404, `No route for ${c.req.method} ${c.req.path}`));
   app.onError((err, c) => {

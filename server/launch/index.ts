@@ -1,10 +1,11 @@
-// SMART App Launch from the record: the routes when SMART_CLIENT_ID is set; otherwise /launch and /callback
-// answer with a page that says the launch is not set up here, and the manual path.
+// SMART App Launch from the record: the routes when SMART_CLIENT_ID is set (mounted before the page, whose new
+// case drops the filing grant); otherwise /launch and /callback answer with a page that says the launch is not
+// set up here, and the manual path.
 import { Hono } from 'hono';
 import { emptyState } from '../../views/flow.ts';
 import { flowView, renderPage } from '../../views/render.ts';
 import { formRoutes } from './forms.ts';
-import { launchView, type LaunchDeps } from './respond.ts';
+import { forgetOnNewCase, launchView, type LaunchDeps } from './respond.ts';
 import { launchRoutes } from './routes.ts';
 
 export { readSettings, type LaunchSettings } from './settings.ts';
@@ -16,6 +17,8 @@ export function launch(
   const { settings } = deps;
   if (settings) {
     const routes = new Hono();
+    routes.get('/', forgetOnNewCase(settings));
+    routes.post('/paste', forgetOnNewCase(settings));
     routes.route('/', launchRoutes({ ...deps, settings }));
     routes.route('/', formRoutes({ ...deps, settings }));
     return routes;

@@ -1,6 +1,6 @@
 // What the launch's routes answer with: the page (or the htmx fragment) of the flow, with the launch's start link
 // and filing back for this browser, and a problem said above the flow with the manual path still open.
-import type { Context } from 'hono';
+import type { Context, MiddlewareHandler } from 'hono';
 import type { InterpretOptions } from '../../calc/index.ts';
 import type { NoteRenderer } from '../../templates/index.ts';
 import { emptyState, type FlowState } from '../../views/flow.ts';
@@ -13,7 +13,7 @@ import {
 } from '../../views/render.ts';
 import { BODY_LIMIT_BYTES } from '../errors.ts';
 import { bodyLimit } from '../limits.ts';
-import { hasRecord } from './cookies.ts';
+import { clearCookie, hasRecord } from './cookies.ts';
 import { LaunchProblem, PROBLEM_STATUS } from './http.ts';
 import type { LaunchSettings } from './settings.ts';
 
@@ -37,14 +37,30 @@ const TITLES: Record<string, string> = {
   unreachable: "The record's server did not answer",
 };
 
+const FORGOTTEN = 'gaslineRecordForgotten';
+
 /** What the page shows of the launch for this browser: the standalone start, and filing back once granted. */
 export function launchView(settings: LaunchSettings, c: Context): Presentation['launch'] {
   const home = settings.issuers.length === 1 ? settings.issuers[0]! : null;
   return {
     standalone: home ? `/launch?iss=${encodeURIComponent(home)}` : null,
-    fileBack: settings.fileBack && hasRecord(c, settings),
+    fileBack: settings.fileBack && hasRecord(c, settings) && c.get(FORGOTTEN) !== true,
   };
 }
+
+/**
+ * A new case (the first page, "New case", a paste) may be another patient: the launch's filing grant is dropped,
+ * so that no note typed afterwards can be filed into the chart of the patient who was launched.
+ */
+export const forgetOnNewCase =
+  (settings: LaunchSettings): MiddlewareHandler =>
+  async (c, next) => {
+    if (hasRecord(c, settings)) {
+      clearCookie(c, settings, 'record');
+      c.set(FORGOTTEN, true);
+    }
+    await next();
+  };
 
 export type Status = 200 | 400 | 403 | 413 | 422 | 502 | 504;
 
@@ -66,7 +82,16 @@ export function responder(deps: LaunchDeps) {
     state: FlowState = emptyState(),
     p: Presentation = {},
   ) => {
-    if (!(error instanceof LaunchProblem)) throw error;
+    // a fault nobody foresaw is still a page a clinician can act on; its class is logged, never its message
+    if (!(error instanceof LaunchProblem)) {
+      console.error(`launch: unexpected ${error instanceof Error ? error.name : typeof error}`);
+      return problem(
+        c,
+        new LaunchProblem('bad-server', "The record's answer could not be used."),
+        state,
+        p,
+      );
+    }
     return send(
       c,
       state,

@@ -137,6 +137,18 @@ describe('an EHR launch, read, confirmed and filed back', () => {
     expect(html).toContain('Reviewed at the bedside');
     expect(html).not.toContain('>File as a draft note in the record<');
   });
+  it('a new case drops the filing grant: nothing typed afterwards can be filed into the launched chart', async () => {
+    expect(agent.cookieHeader(new URL(run.origin))).toContain('gasline_record=');
+    const fresh = await agent.get(`${run.origin}/`);
+    const html = await fresh.text();
+    expect(agent.setCookies.at(-1)).toMatch(/^gasline_record=;.*Max-Age=0/);
+    expect(html).not.toContain('File as a draft note');
+    const form = formFields(draftHtml, '/preview');
+    const refused = await agent.post(`${run.origin}/launch/file`, form);
+    expect(refused.status).toBe(403);
+    expect(await refused.text()).toContain('The launch from the record has ended');
+    expect(run.record.documents).toHaveLength(1);
+  });
 });
 
 describe('a standalone launch', () => {
