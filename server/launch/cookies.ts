@@ -36,10 +36,6 @@ export interface RecordGrant {
 type Purpose = 'transaction' | 'record';
 const NAMES: Record<Purpose, string> = { transaction: 'gasline_launch', record: 'gasline_record' };
 
-/** The cookie's name; over https the __Host- prefix pins it to this host and path /. */
-export const cookieName = (purpose: Purpose, s: Pick<LaunchSettings, 'secureCookies'>) =>
-  `${s.secureCookies ? '__Host-' : ''}${NAMES[purpose]}`;
-
 async function seal(data: object, purpose: Purpose, seconds: number, key: Uint8Array) {
   return new EncryptJWT({ ...data, use: purpose } as JWTPayload)
     .setProtectedHeader({ alg: 'dir', enc: 'A256GCM' })
@@ -77,7 +73,7 @@ const options = (s: LaunchSettings, seconds: number) =>
     ...(s.secureCookies ? { prefix: 'host' as const } : {}),
   }) as const;
 
-/** hono's prefix option adds __Host- itself: set and read by the bare name. */
+/** Over https hono's prefix option adds __Host- (this host, path /) itself: set and read by the bare name. */
 const bare = (purpose: Purpose) => NAMES[purpose];
 
 export async function setTransaction(c: Context, s: LaunchSettings, t: Transaction) {
@@ -92,21 +88,33 @@ export async function takeTransaction(c: Context, s: LaunchSettings) {
   return open<Transaction>(value, 'transaction', s.cookieKey);
 }
 
-/** Keep the grant for filing back, no longer than the token lives; false when it does not fit in a cookie. */
+/** Browsers keep about 4 KB a cookie, name and attributes included. */
+export const MAX_COOKIE_VALUE = 3800;
+
+/**
+ * Keep the grant for filing back, no longer than the token lives. A grant too large for a cookie keeps fewer of
+ * the Observations read (the newest gas's come first and stay longest); 'none' when even the token alone does not fit.
+ */
 export async function setRecord(
   c: Context,
   s: LaunchSettings,
   grant: RecordGrant,
   expiresIn: number | undefined,
-): Promise<boolean> {
+): Promise<'all' | 'some' | 'none'> {
   const seconds = Math.max(
     1,
     Math.floor(expiresIn && expiresIn > 0 ? expiresIn : RECORD_SECONDS_UNSTATED),
   );
-  const value = await seal(grant, 'record', seconds, s.cookieKey);
-  if (value.length > 3800) return false; // browsers keep about 4 KB a cookie
-  setCookie(c, bare('record'), value, options(s, seconds));
-  return true;
+  let related = grant.related;
+  for (;;) {
+    const value = await seal({ ...grant, related }, 'record', seconds, s.cookieKey);
+    if (value.length <= MAX_COOKIE_VALUE) {
+      setCookie(c, bare('record'), value, options(s, seconds));
+      return related.length === grant.related.length ? 'all' : 'some';
+    }
+    if (!related.length) return 'none';
+    related = related.slice(0, Math.floor(related.length / 2));
+  }
 }
 
 export async function readRecord(c: Context, s: LaunchSettings) {

@@ -85,9 +85,13 @@ export function launchRoutes(deps: LaunchDeps): Hono {
           },
           granted.expiresIn,
         );
-        if (!kept)
+        if (kept === 'none')
           read.notes.push(
             'Filing the note back is not available for this launch (its access is too large to keep).',
+          );
+        if (kept === 'some')
+          read.notes.push(
+            'A filed note will list the newest results it was read from, not every earlier one (too many to keep).',
           );
       }
       if (!read.intake.read.length) {

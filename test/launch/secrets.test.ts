@@ -7,7 +7,7 @@ import { homedir, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { Hono } from 'hono';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
-import { setTransaction } from '../../server/launch/cookies.ts';
+import { MAX_COOKIE_VALUE, setRecord, setTransaction } from '../../server/launch/cookies.ts';
 import { readSettings } from '../../server/launch/index.ts';
 import {
   Agent,
@@ -185,5 +185,38 @@ describe('cookies over https, several processes, a token that has expired', () =
     } finally {
       await run.close();
     }
+  });
+});
+
+describe('a filing grant too large for a cookie', () => {
+  const settings = readSettings({
+    SMART_CLIENT_ID: CLIENT_ID,
+    PUBLIC_URL: 'http://127.0.0.1:3000',
+    SMART_COOKIE_KEY: TEST_KEY,
+  });
+  const grantWith = (tokenLength: number, related: number) => ({
+    iss: 'https://ehr.example.org/fhir',
+    token: 'x'.repeat(tokenLength),
+    patient: 'pt-1',
+    related: Array.from({ length: related }, (_, i) => `Observation/lab-result-${1000 + i}`),
+  });
+  const kept = async (tokenLength: number, related: number) => {
+    if (!settings.ok || !settings.launch) throw new Error('settings');
+    let header = '';
+    let outcome = '';
+    const app = new Hono().get('/', async (c) => {
+      outcome = await setRecord(c, settings.launch!, grantWith(tokenLength, related), 300);
+      return c.text('ok');
+    });
+    header = (await app.request('/')).headers.get('set-cookie') ?? '';
+    return { outcome, length: header.split(';')[0]!.length };
+  };
+
+  it('keeps everything when it fits, the first (newest) results when not, and nothing when the token alone is too large', async () => {
+    expect(await kept(1200, 10)).toMatchObject({ outcome: 'all' });
+    const some = await kept(1200, 120);
+    expect(some.outcome).toBe('some');
+    expect(some.length).toBeLessThanOrEqual(MAX_COOKIE_VALUE + 'gasline_record='.length);
+    expect(await kept(4000, 0)).toEqual({ outcome: 'none', length: 0 });
   });
 });
