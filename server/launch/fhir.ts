@@ -3,7 +3,7 @@
 // goes to the launch's FHIR base only: a next link elsewhere is refused, not followed.
 import * as oauth from 'oauth4webapi';
 import { LOINC_CODES } from '../intake/index.ts';
-import { HEIGHT_LOINC } from './gases.ts';
+import { HEIGHT_LOINC } from './intake.ts';
 import { LaunchProblem, REQUEST_TIMEOUT_MS, readJson, unreachable } from './http.ts';
 
 type Json = Record<string, unknown>;

@@ -22,7 +22,7 @@ function recordView(
     ...pasteView(read.intake, form, errors),
     title: 'Check what the record gave',
     action: '/launch/confirm',
-    record: { patient: read.patient, earlier: read.earlier.map((e) => e.line), notes: read.notes },
+    record: { patient: read.patient, earlier: read.earlier, notes: read.notes },
   };
 }
 

@@ -1,18 +1,11 @@
-// What the launch read, as text and back: the Patient, the height and the gases' Observations go into one small
-// FHIR Bundle (the text the confirm view shows and posts back, like a paste); reading it gives the paste's intake
-// for the newest gas (through the FHIR reader), the patient's age, sex and height, and the earlier gases.
-// The same reading runs in the callback and on confirm, so what the clinician confirms is what was shown.
+// What the launch read, as text and back: the Patient, the height and the results' Observations go into one small
+// FHIR Bundle (the text the confirm view shows and posts back, like a paste). Reading it gives the paste's intake
+// through the FHIR reader, which makes the newest gas the case's gas and the earlier gases its `previous`; the
+// launch adds the patient's age, sex and height. The same reading runs in the callback and on confirm, so what the
+// clinician confirms is what was shown.
 import { MAX_PASTE_CHARS, caseFromFhir } from '../intake/index.ts';
 import { intakeOf, type Intake } from '../../views/paste.ts';
 import { readIntake } from '../page.ts';
-import {
-  HEIGHT_LOINC,
-  LOINC_SYSTEM as LOINC,
-  effectiveTime,
-  groupGases,
-  pathsOf,
-} from './gases.ts';
-import { previousGases, type EarlierGas } from './previous.ts';
 
 type Json = Record<string, unknown>;
 const isObject = (x: unknown): x is Json =>
@@ -22,8 +15,24 @@ export interface RecordRead {
   intake: Intake;
   /** what the record gave besides the newest gas's values, for the confirm view */
   patient: string | null;
-  earlier: EarlierGas[];
+  earlier: string[];
   notes: string[];
+  /** the Observations the case was read from (Observation/id): a filed note's context.related */
+  related: string[];
+}
+
+const LOINC = 'http://loinc.org';
+/** Body height, LOINC 8302-2 (the FHIR vital-signs profile's code; from memory). */
+export const HEIGHT_LOINC = '8302-2';
+
+/** effective[x] as a time: dateTime, instant, or a period's end (else its start). */
+function effectiveTime(obs: Json): number | null {
+  const period = isObject(obs.effectivePeriod) ? obs.effectivePeriod : {};
+  const raw = [obs.effectiveDateTime, obs.effectiveInstant, period.end, period.start].find(
+    (x) => typeof x === 'string',
+  ) as string | undefined;
+  const t = raw ? Date.parse(raw) : Number.NaN;
+  return Number.isFinite(t) ? t : null;
 }
 
 // ---------- text ----------
@@ -63,25 +72,29 @@ const minimalCategory = (c: unknown) => ({
     .map((k) => pick(k, ['system', 'code'])),
 });
 
-/** The Bundle the confirm view shows: one resource a line, within the paste's limit (oldest gases go first). */
+/** The Bundle the confirm view shows: one resource a line, within the paste's limit (the oldest results go first). */
 export function recordText(patient: Json | null, observations: Json[]): string {
-  const grouped = groupGases(observations.filter((o) => !isHeight(o)));
   const height = newestHeight(observations);
   const head = [
     ...(patient ? [pick(patient, ['resourceType', 'id', 'birthDate', 'gender'])] : []),
     ...(height ? [minimalObservation(height)] : []),
-    ...grouped.newest.map((p) => minimalObservation(p.resource)),
   ];
-  const earlier = grouped.earlier.map((g) =>
-    g.observations.map((p) => minimalObservation(p.resource)),
-  );
-  const lines = (resources: Json[]) => resources.map((r) => `  {"resource":${JSON.stringify(r)}}`);
-  const build = (groups: Json[][]) =>
-    `{"resourceType":"Bundle","type":"collection","entry":[\n${[...lines(head), ...groups.flatMap(lines)].join(',\n')}\n]}`;
-  let text = build(earlier);
-  while (text.length > MAX_PASTE_CHARS && earlier.length) {
-    earlier.shift();
-    text = build(earlier);
+  let results = observations
+    .filter((o) => !isHeight(o))
+    .map((o) => ({
+      time: effectiveTime(o) ?? Number.POSITIVE_INFINITY,
+      resource: minimalObservation(o),
+    }))
+    .sort((x, y) => y.time - x.time);
+  const line = (r: Json) => `  {"resource":${JSON.stringify(r)}}`;
+  const build = () =>
+    `{"resourceType":"Bundle","type":"collection","entry":[\n${[...head, ...results.map((r) => r.resource)].map(line).join(',\n')}\n]}`;
+  let text = build();
+  while (text.length > MAX_PASTE_CHARS && results.length) {
+    // the results of the oldest time leave together, so that no gas is cut in half
+    const oldest = results.at(-1)!.time;
+    results = results.filter((r) => r.time !== oldest);
+    text = build();
   }
   return text;
 }
@@ -124,7 +137,16 @@ function resourcesOf(json: unknown): Json[] | null {
   return null;
 }
 
-/** Read the launch's text back into the paste's intake, with the patient and the earlier gases added to its case. */
+/** The pressure unit of the case, for the earlier gases' lines. */
+const pressureOf = (c: Json) => String((c.units as Json | undefined)?.pressure ?? 'mmHg');
+const SHOWN: [string, string, (pressure: string) => string][] = [
+  ['ph', 'pH', () => ''],
+  ['pco2', 'PCO2', (p) => ` ${p}`],
+  ['hco3', 'HCO3', () => ' mmol/L'],
+  ['po2', 'PO2', (p) => ` ${p}`],
+];
+
+/** Read the launch's text back into the paste's intake, with the patient's age, sex and height added to its case. */
 export function readRecordText(text: string, now = new Date()): RecordRead {
   let json: unknown;
   try {
@@ -135,20 +157,27 @@ export function readRecordText(text: string, now = new Date()): RecordRead {
   const resources = resourcesOf(json);
   // edited into something else: read like any paste
   if (!resources)
-    return { intake: intakeOf(readIntake(text), text), patient: null, earlier: [], notes: [] };
-  const observations = resources.filter((r) => r.resourceType === 'Observation');
-  const grouped = groupGases(observations.filter((o) => !isHeight(o)));
-  const newest = {
+    return {
+      intake: intakeOf(readIntake(text), text),
+      patient: null,
+      earlier: [],
+      notes: [],
+      related: [],
+    };
+  const results = resources.filter((r) => r.resourceType === 'Observation' && !isHeight(r));
+  const read = caseFromFhir({
     resourceType: 'Bundle',
     type: 'collection',
-    entry: grouped.newest.map((p) => ({ resource: p.resource })),
-  };
-  const intake = intakeOf({ kind: 'fhir', result: caseFromFhir(newest) }, text);
+    entry: results.map((resource) => ({ resource })),
+  });
+  const intake = intakeOf({ kind: 'fhir', result: read }, text);
   const notes: string[] = [];
-  if (grouped.untimed.length)
-    notes.push(
-      `${grouped.untimed.length} result${grouped.untimed.length === 1 ? '' : 's'} without a time could not be placed in a gas and ${grouped.untimed.length === 1 ? 'was' : 'were'} not used.`,
-    );
+  // the Observations read into the case or its earlier gases: entry[i] of the bundle given to the reader
+  const sources = [...read.read, ...read.previous.flatMap((p) => p.read)].map((r) => r.source);
+  const used = new Set(sources.map((s) => Number(/^entry\[(\d+)\]/.exec(s)?.[1] ?? -1)));
+  const related = results
+    .filter((r, i) => used.has(i) && typeof r.id === 'string')
+    .map((r) => `Observation/${String(r.id)}`);
 
   const patient = resources.find((r) => r.resourceType === 'Patient') ?? null;
   const said: string[] = [];
@@ -165,7 +194,7 @@ export function readRecordText(text: string, now = new Date()): RecordRead {
       said.push(patient.gender);
     }
   }
-  const height = newestHeight(observations);
+  const height = newestHeight(resources.filter((r) => r.resourceType === 'Observation'));
   const cm = height ? heightCm(height) : null;
   if (height && cm !== null && cm >= 100 && cm <= 250) {
     values.heightCm = cm;
@@ -176,17 +205,14 @@ export function readRecordText(text: string, now = new Date()): RecordRead {
     );
   if (Object.keys(values).length && intake.read.length) intake.case.patient = values;
 
-  const earlier = previousGases(grouped.earlier, intake.case, notes);
-  if (earlier.length && intake.read.length) intake.case.previous = earlier.map((e) => e.gas);
-  return { intake, patient: said.length ? said.join(', ') : null, earlier, notes };
-}
-
-/** Observation references (Observation/id) a read case came from: the note's context.related. */
-export function relatedOf(text: string): string[] {
-  const resources = resourcesOf(JSON.parse(text)) ?? [];
-  return resources
-    .filter(
-      (r) => r.resourceType === 'Observation' && typeof r.id === 'string' && pathsOf(r).length,
-    )
-    .map((r) => `Observation/${String(r.id)}`);
+  const previous = Array.isArray(intake.case.previous) ? (intake.case.previous as Json[]) : [];
+  const pressure = pressureOf(intake.case);
+  const earlier = previous.map((p) => {
+    const gas = (p.gas ?? {}) as Record<string, number>;
+    const values = SHOWN.filter(([k]) => typeof gas[k] === 'number').map(
+      ([k, label, unit]) => `${label} ${gas[k]}${unit(pressure)}`,
+    );
+    return `${String(p.takenAt ?? '').replace('T', ' ')}: ${values.join(', ')}`;
+  });
+  return { intake, patient: said.length ? said.join(', ') : null, earlier, notes, related };
 }

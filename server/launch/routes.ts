@@ -6,7 +6,7 @@ import { setRecord, setTransaction, takeTransaction } from './cookies.ts';
 import { discover } from './discovery.ts';
 import { readPatient, readResults } from './fhir.ts';
 import { LaunchProblem } from './http.ts';
-import { readRecordText, recordText, relatedOf } from './intake.ts';
+import { readRecordText, recordText } from './intake.ts';
 import { authorizationUrl, exchangeCode, newTransaction } from './oauth.ts';
 import { recordView } from './forms.ts';
 import { responder, type LaunchDeps } from './respond.ts';
@@ -81,7 +81,7 @@ export function launchRoutes(deps: LaunchDeps): Hono {
             patient: granted.patient,
             ...(granted.encounter ? { encounter: granted.encounter } : {}),
             ...(granted.fhirUser ? { author: granted.fhirUser } : {}),
-            related: read.intake.read.length ? relatedOf(text) : [],
+            related: read.related,
           },
           granted.expiresIn,
         );

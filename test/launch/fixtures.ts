@@ -75,7 +75,7 @@ const patient = (id: string, name: string, gender: string, birthDate: string) =>
 
 /**
  * pt-1: an invented woman of 64 on a ward, CO2 rising (a newest gas 30 minutes ago, two earlier ones, one from three
- * days ago that is outside the window), chemistry and FiO2 near the newest gas, a height. pt-2: an invented man with
+ * days ago that is outside the window), chemistry and FiO2 drawn and charted with the newest gas (within the FHIR reader's five minutes), a height. pt-2: an invented man with
  * one gas of a metabolic acidosis. pt-3: no gas at all. pt-4: a gas with pH alone.
  */
 export function inventedRecord(now = Date.now()): RecordData {
@@ -96,11 +96,11 @@ export function inventedRecord(now = Date.now()): RecordData {
         be: 3,
         lactate: 1.4,
       }),
-      obs('pt-1', '2951-2', 138, 'mmol/L', at(40)),
-      obs('pt-1', '2823-3', 4.4, 'mmol/L', at(40)),
-      obs('pt-1', '2075-0', 97, 'mmol/L', at(40)),
-      obs('pt-1', '1751-7', 3.6, 'g/dL', at(40)),
-      obs('pt-1', '3150-0', 35, '%', at(35)),
+      obs('pt-1', '2951-2', 138, 'mmol/L', at(32)),
+      obs('pt-1', '2823-3', 4.4, 'mmol/L', at(32)),
+      obs('pt-1', '2075-0', 97, 'mmol/L', at(32)),
+      obs('pt-1', '1751-7', 3.6, 'g/dL', at(32)),
+      obs('pt-1', '3150-0', 35, '%', at(30)),
       ...arterialGas('pt-1', at(6 * 60), { ph: 7.24, pco2: 71, hco3: 29.5 }),
       ...arterialGas('pt-1', at(20 * 60), { ph: 7.33, pco2: 58, hco3: 30 }),
       ...arterialGas('pt-1', at(60 * 60), { ph: 7.38, pco2: 52, hco3: 30 }),

@@ -1,56 +1,12 @@
-// Grouping the record's Observations into gases by time, and the patient read from the record: table-driven, with
-// invented results. The 5-minute sample window is the FHIR reader's own; the hour for chemistry is our own limit.
+// The record's results as the confirm view's text and back: what the text keeps and leaves out, the patient's age,
+// sex and height, the earlier gases as the FHIR reader gives them, and the Observations a filed note names.
+// Invented results only.
 import { describe, expect, it } from 'vitest';
-import { groupGases } from '../../server/launch/gases.ts';
 import { ageYears, readRecordText, recordText } from '../../server/launch/intake.ts';
 import { arterialGas, obs } from './fixtures.ts';
 
 const T = Date.parse('2026-03-02T04:10:00Z');
 const at = (minutes: number) => new Date(T + minutes * 60_000).toISOString();
-const ids = (list: { resource: Record<string, unknown> }[]) => list.map((p) => p.resource.code);
-
-describe('groupGases', () => {
-  it('takes the newest sample, values within 5 minutes of it, and chemistry within the hour (the nearest one)', () => {
-    const g = groupGases([
-      ...arterialGas('p', at(0), { ph: 7.3, pco2: 50, hco3: 24 }),
-      obs('p', '2019-8', 51, 'mm[Hg]', at(-3)), // same sample, 3 minutes apart
-      obs('p', '2951-2', 140, 'mmol/L', at(-50)),
-      obs('p', '2951-2', 139, 'mmol/L', at(-20)), // the nearer sodium wins
-      obs('p', '2075-0', 100, 'mmol/L', at(-75)), // more than an hour: not of this gas
-      obs('p', '2518-9', 2.0, 'mmol/L', at(-20)), // lactate is the analyser's: 20 minutes is another sample
-      ...arterialGas('p', at(-240), { ph: 7.25, pco2: 60, hco3: 26 }),
-    ]);
-    expect(g.newestTime).toBe(T);
-    expect(g.newest).toHaveLength(5);
-    expect(
-      g.newest
-        .filter((p) => p.paths.includes('chemistry.na'))
-        .map((p) => (p.resource.valueQuantity as { value: number }).value),
-    ).toEqual([139]);
-    expect(g.newest.some((p) => p.paths.includes('chemistry.cl'))).toBe(false);
-    expect(g.newest.some((p) => p.paths.includes('gas.lactate'))).toBe(false);
-    expect(g.earlier).toHaveLength(1);
-    expect(g.earlier[0]!.time).toBe(T - 240 * 60_000);
-    expect(ids(g.earlier[0]!.observations)).toHaveLength(3);
-  });
-
-  it('orders earlier gases oldest first and sets aside results without a time', () => {
-    const g = groupGases([
-      ...arterialGas('p', at(-60), { ph: 7.31, pco2: 48 }),
-      ...arterialGas('p', at(0), { ph: 7.35, pco2: 44 }),
-      ...arterialGas('p', at(-600), { ph: 7.28, pco2: 55 }),
-      { ...obs('p', '2744-1', 7.4, '[pH]', at(0)), effectiveDateTime: undefined },
-    ]);
-    expect(g.earlier.map((e) => e.time)).toEqual([T - 600 * 60_000, T - 60 * 60_000]);
-    expect(g.untimed).toHaveLength(1);
-  });
-
-  it('without a gas there is nothing newest, whatever chemistry there is', () => {
-    const g = groupGases([obs('p', '2951-2', 140, 'mmol/L', at(0))]);
-    expect(g.newest).toEqual([]);
-    expect(g.newestTime).toBeNull();
-  });
-});
 
 describe('ageYears (whole years to today, a partial date gives none)', () => {
   it.each([
@@ -122,6 +78,28 @@ describe('the record as text and back', () => {
     const read = readRecordText(text, new Date(T));
     expect(read.earlier.length).toBeGreaterThan(0);
     expect(read.earlier.length).toBeLessThanOrEqual(20);
-    expect(read.earlier.at(-1)!.line).toContain(at(-30).slice(0, 16).replace('T', ' '));
+    // the newest earlier gases are the ones kept; whole gases leave, never half of one
+    expect(read.earlier.at(-1)!).toContain(at(-30).slice(0, 16).replace('T', ' '));
+    expect(read.intake.notes.join(' ')).not.toMatch(/not a whole gas/);
+  });
+
+  it("the earlier gases are the FHIR reader's previous gases, and related names the Observations read, not the rest", () => {
+    const gasNow = arterialGas('p', at(0), { ph: 7.29, pco2: 62, hco3: 29 });
+    const gasBefore = arterialGas('p', at(-360), { ph: 7.24, pco2: 71, hco3: 29.5 });
+    const farChemistry = obs('p', '2951-2', 140, 'mmol/L', at(-45)); // not of any gas's time
+    const text = recordText(patient, [...gasNow, ...gasBefore, farChemistry]);
+    const read = readRecordText(text, new Date(T));
+    expect(read.intake.case.previous).toEqual([
+      {
+        takenAt: expect.stringContaining(at(-360).slice(0, 16)),
+        gas: { ph: 7.24, pco2: 71, hco3: 29.5 },
+      },
+    ]);
+    expect(read.earlier).toEqual([
+      `${at(-360).slice(0, 16).replace('T', ' ')}${read.earlier[0]!.slice(16)}`,
+    ]);
+    expect(read.earlier[0]).toMatch(/pH 7\.24, PCO2 71 mmHg, HCO3 29\.5 mmol\/L/);
+    const ids = (list: Record<string, unknown>[]) => list.map((o) => `Observation/${String(o.id)}`);
+    expect(new Set(read.related)).toEqual(new Set([...ids(gasNow), ...ids(gasBefore)]));
   });
 });
