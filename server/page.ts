@@ -41,6 +41,8 @@ import { STEPS, isStepId, summary, type FormValues, type StepId } from '../views
 export interface PageDeps {
   renderer: NoteRenderer;
   interpretOptions?: InterpretOptions;
+  /** the launch from the record, when on: its start link and whether this browser may file the draft back */
+  launchView?: (c: Context) => Presentation['launch'];
 }
 
 const FORM_TYPES = new Set(['application/x-www-form-urlencoded', 'multipart/form-data']);
@@ -125,7 +127,7 @@ export function pageRoutes(deps: PageDeps): Hono {
   });
 
   const send = (c: Context, state: FlowState, p: Presentation, status: 200 | 422 = 200) => {
-    const view = flowView(state, deps, p);
+    const view = flowView(state, deps, { launch: deps.launchView?.(c), ...p });
     return c.html(isHtmx(c) ? renderFragment(view) : renderPage(view), status, NO_STORE);
   };
 
