@@ -134,6 +134,7 @@ const percentile = (sorted: number[], p: number) =>
 /**
  * Latency at a fixed rate: each request sent on its schedule whether or not the one before has been answered
  * (so a slow answer does not hide the ones queued behind it), timed from sending to the answer's last byte.
+ * A server that falls a second's worth of requests behind has not held the rate: the sending stops there.
  */
 export async function atRate(base: string, route: Route, perSecond: number, count: number) {
   const agent = new Agent({ keepAlive: true, maxSockets: 32 });
@@ -141,8 +142,9 @@ export async function atRate(base: string, route: Route, perSecond: number, coun
   const errors: string[] = [];
   const pending: Promise<void>[] = [];
   const start = performance.now();
-  for (let i = 0; i < count; i++) {
-    const wait = start + (i * 1000) / perSecond - performance.now();
+  while (pending.length < count) {
+    if (pending.length - latencies.length - errors.length > perSecond) break;
+    const wait = start + (pending.length * 1000) / perSecond - performance.now();
     if (wait > 0) await new Promise((resolve) => setTimeout(resolve, wait));
     pending.push(
       timed(agent, base, route).then(
@@ -157,8 +159,14 @@ export async function atRate(base: string, route: Route, perSecond: number, coun
     );
   }
   await Promise.all(pending);
-  const rate = (count * 1000) / (performance.now() - start);
+  const rate = (pending.length * 1000) / (performance.now() - start);
   agent.destroy();
   latencies.sort((a, b) => a - b);
-  return { p50: percentile(latencies, 50), p99: percentile(latencies, 99), errors, rate };
+  return {
+    p50: percentile(latencies, 50),
+    p99: percentile(latencies, 99),
+    errors,
+    rate,
+    sent: pending.length,
+  };
 }
