@@ -42,7 +42,7 @@ const plans = (draft: Route): Plan[] => [
   },
   { route: draft, firstWarm: pick(500, 50), warm: pick(50, 10), measured: pick(250, 50) },
 ];
-const RATE = 100; // requests per second, about a busy ward's worth
+const RATE = 100; // requests per second for the latency figures: steady, not the most the server can take
 const LATENCY_REQUESTS = pick(2000, 100);
 
 const rows: { pass: boolean | null }[] = [];
