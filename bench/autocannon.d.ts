@@ -4,19 +4,15 @@ declare module 'autocannon' {
     url: string;
     method?: string;
     connections?: number;
+    /** seconds to run, unless amount is given */
     duration?: number;
+    /** requests to send, then stop */
+    amount?: number;
     headers?: Record<string, string>;
     body?: string;
   }
-  interface Histogram {
-    average: number;
-    p50: number;
-    p99: number;
-    max: number;
-  }
   interface Result {
-    requests: Histogram;
-    latency: Histogram;
+    requests: { total: number; average: number };
     errors: number;
     timeouts: number;
     non2xx: number;
