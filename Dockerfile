@@ -29,4 +29,4 @@ EXPOSE 3000
 HEALTHCHECK --interval=30s --timeout=3s --start-period=10s --retries=3 \
   CMD ["node", "-e", "fetch('http://127.0.0.1:'+(process.env.PORT||3000)+'/healthz').then(r=>process.exit(r.ok?0:1),()=>process.exit(1))"]
 # node itself, not npm (npm writes logs under the home folder, which a read-only root does not allow)
-CMD ["node", "--max-semi-space-size=64", "dist/server/main.js"]
+CMD ["node", "dist/server/main.js"]
