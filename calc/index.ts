@@ -53,6 +53,7 @@ export type {
   PhStatus,
 } from './classify.ts';
 export type { ReferencePoint } from './referencePoint.ts';
+export { CONDITIONS, type Condition } from './conditions.ts';
 export type { Explanation, How, Input } from './explain.ts';
 export { round } from './explain.ts';
 export { SOURCES, type SourceKey } from './sources.ts';
