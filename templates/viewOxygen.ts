@@ -30,7 +30,7 @@ export function venousView({ f, fmt, withheld }: Ctx) {
             : null,
           agreement: {
             ph: fmt.fixed(VENOUS_AGREEMENT.ph, 2),
-            hco3: fmt.mmol(VENOUS_AGREEMENT.hco3),
+            hco3: fmt.withUnit(VENOUS_AGREEMENT.hco3, 1, 'mmol/L'),
             pco2: fmt.pressureBand({
               low: VENOUS_AGREEMENT.pco2Low,
               high: VENOUS_AGREEMENT.pco2High,

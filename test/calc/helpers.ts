@@ -234,15 +234,9 @@ export const anyCase: fc.Arbitrary<CaseInput> = fc.constantFrom(SI, CONVENTIONAL
               },
               { requiredKeys: [] },
             ),
+            maybe(fc.subarray([...CONDITIONS])),
           )
-          .chain(([ctx, timing, baseline]) =>
-            maybe(fc.subarray([...CONDITIONS])).map((conditions) => ({
-              ...ctx,
-              timing,
-              baseline,
-              conditions,
-            })),
-          ),
+          .map(([ctx, timing, baseline, conditions]) => ({ ...ctx, timing, baseline, conditions })),
         oxygen: fc
           .tuple(groupOf(OXYGEN_RANGES, units), maybe(fio2))
           .map(([o, f]) => ({ ...o, fio2: f })),
