@@ -309,6 +309,7 @@ const IN_TEXT: ReadonlySet<FlagCode> = new Set<FlagCode>([
   'lactate_raised',
   'ketoacidosis_pattern',
   'hyperosmolar_state',
+  'pf_adjusted_for_altitude',
   'oxygenation_not_assessable',
   'venous_sample',
   'capillary_sample',

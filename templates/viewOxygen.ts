@@ -69,6 +69,8 @@ export function oxygenationView({ f, fmt, withheld }: Ctx) {
     lowInspired: o.lowInspiredOrHypoventilation,
     aaImpossible: f.flags.some((x) => x.code === 'po2_above_alveolar'),
     pf: fmt.pfRatio(d.pfRatio),
+    // below sea-level pressure: the ratio the Berlin bands are judged on (clinical-scope section 10)
+    pfAdjusted: fmt.pfRatio(d.pfRatioAdjusted),
     pfBand: o.pfBand,
     pfBandApplies: o.pfBandApplies,
     pfLimits: {
