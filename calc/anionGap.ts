@@ -9,9 +9,15 @@ export const anionGap = (na: number, cl: number, hco3: number, k: number | null 
 export const albuminCorrectedAnionGap = (ag: number, albuminGdl: number): number =>
   ag + 2.5 * (4.0 - albuminGdl);
 
-// Delta ratio = (AG - normal AG) / (24 - HCO3) (Wrenn 1990); only defined while HCO3 is below 24.
-export function deltaRatio(ag: number, hco3: number, normalAg = 12): number | null {
-  const denominator = 24 - hco3;
+// Delta ratio = (AG - normal AG) / (reference HCO3 - HCO3) (Wrenn 1990), the reference being 24 or the HCO3 that
+// applies to this patient (clinical-scope section 10); only defined while HCO3 is below that reference.
+export function deltaRatio(
+  ag: number,
+  hco3: number,
+  normalAg = 12,
+  referenceHco3 = 24,
+): number | null {
+  const denominator = referenceHco3 - hco3;
   return denominator > 0 ? (ag - normalAg) / denominator : null;
 }
 

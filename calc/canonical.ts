@@ -12,6 +12,7 @@ import {
   phFromHydrogenIon,
 } from './acidBase.ts';
 import type { Timing } from './compensation.ts';
+import type { Condition } from './conditions.ts';
 import type { Sex } from './ventilation.ts';
 
 type N = number | null;
@@ -52,7 +53,12 @@ export interface CanonicalCase {
   chemistry: Values<'chemistry'>;
   urine: Values<'urine'>;
   patient: Values<'patient'> & { sex: Sex | null; pregnant: boolean };
-  context: Values<'context'> & { timing: Timing; baseline: Values<'context.baseline'> | null };
+  context: Values<'context'> & {
+    timing: Timing;
+    /** known conditions, each once */
+    conditions: Condition[];
+    baseline: Values<'context.baseline'> | null;
+  };
   oxygen: Values<'oxygen'>;
   ventilator: Values<'ventilator'> | null;
   settings: Settings;
@@ -116,6 +122,7 @@ export function canonicalize(c: ParsedCase): CanonicalCase {
     context: {
       ...valuesOf('context', context, units),
       timing: context.timing ?? 'unknown',
+      conditions: [...new Set(context.conditions ?? [])],
       baseline:
         baseline && Object.values(baseline).some(known)
           ? valuesOf('context.baseline', baseline, units)

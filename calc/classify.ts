@@ -1,6 +1,6 @@
 // The naming of primary and added processes: which process explains the pH, whether compensation fits, and what
 // the anion gap reveals.
-import { NORMAL } from './reference.ts';
+import { ALKALOSIS_CEILING, COMPENSATION_BAND, NORMAL } from './reference.ts';
 import {
   expectedHco3,
   metabolicAlkalosisPco2,
@@ -8,7 +8,18 @@ import {
   type Band,
   type Timing,
 } from './compensation.ts';
-import type { ReferencePoint } from './referencePoint.ts';
+import {
+  usualIsChronic,
+  usualOnChronicLine,
+  type ReferencePoint,
+  type UsualPoint,
+} from './referencePoint.ts';
+import {
+  deltaReferences,
+  readDelta,
+  type DeltaReading,
+  type RespiratoryShift,
+} from './deltaReference.ts';
 
 export type DisorderCode =
   | 'metabolic_acidosis'
@@ -30,10 +41,10 @@ export type DisorderBasis =
   | 'pco2_below_expected'
   | 'hco3_above_expected'
   | 'hco3_below_expected'
-  | 'delta_ratio_mixed' // delta ratio 0.4-0.8
+  | 'delta_ratio_mixed' // delta ratio below 0.8
   | 'delta_ratio_high' // delta ratio > 2
   | 'raised_gap_hidden' // raised AG though the HCO3 does not show an acidosis
-  | 'raised_gap_with_high_hco3';
+  | 'raised_gap_with_high_hco3'; // raised AG with an HCO3 not below the one that applies
 
 export interface Disorder {
   code: DisorderCode;
@@ -47,7 +58,6 @@ export interface AnionGapView {
   value: number;
   upperLimit: number;
   normal: number;
-  deltaRatio: number | null;
 }
 
 export interface ClassifyInput {
@@ -79,6 +89,14 @@ export interface Compensation {
   acute: Band | null;
   chronic: Band | null;
   pco2Basis: 'measured' | 'venous_estimate';
+  /** respiratory primaries: a metabolic acidosis has lowered the HCO3 (a raised anion gap, or an HCO3 below the
+   *  expectation), so the timing cannot be read from it (clinical-scope section 10) */
+  hco3LoweredBy: 'raised_anion_gap' | 'low_hco3' | null;
+  /** metabolic alkalosis: the expected PaCO2 reaches the usual ceiling of respiratory compensation */
+  nearCeiling: boolean;
+  /** the usual point was worked out from a usual pH with today's HCO3 as the chronic part, so today's HCO3 is the
+   *  reference itself and is not checked against a rule */
+  fromUsualPh: boolean;
 }
 
 export interface Classification {
@@ -87,6 +105,10 @@ export interface Classification {
   compensation: Compensation | null;
   expectedPco2: Band | null;
   expectedHco3: Band | null;
+  /** the patient's usual point: the reference's own, or estimated on the chronic line from today's gas */
+  usual: UsualPoint | null;
+  /** the delta ratio against the HCO3 that applies, when the anion gap is raised */
+  delta: DeltaReading | null;
 }
 
 // Acidaemia pH < 7.35, alkalaemia pH > 7.45 (common practice).
@@ -156,6 +178,136 @@ function anionGapDetail(ag: AnionGapView | null): DisorderDetail | null {
   return ag.value > ag.upperLimit ? 'high_anion_gap' : 'normal_anion_gap';
 }
 
+const raised = (ag: AnionGapView | null): boolean => ag !== null && ag.value > ag.upperLimit;
+const band = (centre: number): Band => ({
+  low: centre - COMPENSATION_BAND,
+  high: centre + COMPENSATION_BAND,
+});
+
+/** Metabolic primaries: Winters' formula or the alkalosis rule, the latter with its ceiling. */
+function metabolicCompensation(x: ClassifyInput, primary: DisorderCode): Compensation {
+  const acid = primary === 'metabolic_acidosis';
+  const expected = acid ? wintersPco2(x.hco3) : metabolicAlkalosisPco2(x.hco3);
+  const span = x.pco2Range ?? { low: x.pco2, high: x.pco2 };
+  let verdict = span.low > expected.high ? 'above' : span.high < expected.low ? 'below' : 'within';
+  let nearCeiling = false;
+  // Near the ceiling of 55-60 mmHg a shortfall no larger than the ceiling's own spread names no added process
+  // (clinical-scope section 10; common practice, from memory).
+  if (!acid && expected.high > ALKALOSIS_CEILING.low && verdict !== 'above') {
+    const spread = ALKALOSIS_CEILING.high - ALKALOSIS_CEILING.low;
+    const floor = Math.min(expected.low, ALKALOSIS_CEILING.low) - spread;
+    if (span.high >= floor) {
+      verdict = 'within';
+      nearCeiling = true;
+    }
+  }
+  return {
+    primary,
+    rule: acid ? 'winters' : 'metabolic_alkalosis',
+    timing: x.timing,
+    expected,
+    observed: x.pco2,
+    verdict: verdict as Compensation['verdict'],
+    fit: null,
+    acute: null,
+    chronic: null,
+    pco2Basis: x.pco2Basis ?? 'measured',
+    hco3LoweredBy: null,
+    nearCeiling,
+    fromUsualPh: false,
+  };
+}
+
+/** Respiratory primaries: expected HCO3, the fit against the acute and chronic rules, and the usual point. */
+function respiratoryCompensation(x: ClassifyInput, primary: DisorderCode, gapRaised: boolean) {
+  const acidosis = primary === 'respiratory_acidosis';
+  // a usual pH alone makes today's HCO3 the chronic part (clinical-scope section 10): checking today's HCO3 against
+  // a rule built on itself would be circular, so the band is that HCO3 +/- 2 and the timing comes from the usual PaCO2
+  const fromUsualPh = x.reference.usual?.source === 'usual_ph';
+  const e = fromUsualPh
+    ? { band: band(x.reference.hco3), acute: null, chronic: null }
+    : expectedHco3(x.pco2, x.timing, x.reference);
+  const verdict = verdictOf(x.hco3, e.band);
+  const fit = e.acute && e.chronic ? respiratoryFit(x.hco3, e.acute, e.chronic) : null;
+  // a metabolic acidosis beside it has lowered the HCO3: its timing cannot be read from that HCO3
+  const hco3LoweredBy = gapRaised
+    ? ('raised_anion_gap' as const)
+    : verdict === 'below'
+      ? ('low_hco3' as const)
+      : null;
+  const compensation: Compensation = {
+    primary,
+    rule: acidosis ? 'respiratory_acidosis' : 'respiratory_alkalosis',
+    timing: x.timing,
+    expected: e.band,
+    observed: x.hco3,
+    verdict,
+    fit,
+    acute: e.acute,
+    chronic: e.chronic,
+    pco2Basis: x.pco2Basis ?? 'measured',
+    hco3LoweredBy,
+    nearCeiling: false,
+    fromUsualPh,
+  };
+  const usual = x.reference.usual ?? chronicLineUsual(x, compensation);
+  return { compensation, usual, detail: respiratoryDetail(x, compensation, usual, acidosis) };
+}
+
+/** No usual values, and an HCO3 that a chronic process explains, wholly or in part: the usual point on the chronic
+ *  line from which an acute change reaches today's gas (clinical-scope section 10); an estimate. */
+function chronicLineUsual(x: ClassifyInput, comp: Compensation): UsualPoint | null {
+  const readable = comp.hco3LoweredBy === null && comp.verdict === 'within';
+  const chronicPart =
+    x.timing === 'chronic' ||
+    (x.timing === 'unknown' && (comp.fit === 'between' || comp.fit === 'chronic'));
+  if (!readable || !chronicPart) return null;
+  const point = usualOnChronicLine(x.pco2, x.hco3, x.reference);
+  const usual: UsualPoint = {
+    ...point,
+    source: 'chronic_line',
+    estimated: { pco2: true, hco3: true },
+  };
+  return usualIsChronic(usual) ? usual : null;
+}
+
+function respiratoryDetail(
+  x: ClassifyInput,
+  comp: Compensation,
+  usual: UsualPoint | null,
+  acidosis: boolean,
+): DisorderDetail | null {
+  if (usual && usualIsChronic(usual)) {
+    // however the usual PaCO2 was obtained, a PaCO2 beyond it (beyond its +/- 5 mmHg) is acute-on-chronic
+    const beyond = acidosis ? x.pco2 > usual.pco2 + 5 : x.pco2 < usual.pco2 - 5;
+    return beyond || x.timing === 'acute' ? 'acute_on_chronic' : 'chronic';
+  }
+  if (x.timing !== 'unknown') return x.timing;
+  // a usual pH with a normal usual PaCO2: no chronic part, so the change since is acute
+  if (comp.fromUsualPh) return usual ? 'acute' : null;
+  if (comp.hco3LoweredBy !== null) return null;
+  const fit = comp.fit;
+  return fit === 'acute'
+    ? 'acute'
+    : fit === 'chronic'
+      ? 'chronic'
+      : fit === 'between'
+        ? 'acute_on_chronic'
+        : null;
+}
+
+/** The respiratory process that moves the HCO3 the raised gap is measured against: a respiratory primary, or a
+ *  hypercapnia beside a metabolic primary (a low PaCO2 there is at least partly the compensation itself). */
+function respiratoryShift(x: ClassifyInput, disorders: Disorder[]): RespiratoryShift | null {
+  const primary = disorders[0]?.code;
+  if (primary === 'respiratory_acidosis' || primary === 'respiratory_alkalosis')
+    return { pco2: x.pco2, timing: x.timing };
+  const hypercapnia = disorders.some((d) => d.code === 'respiratory_acidosis');
+  return hypercapnia && x.pco2 > x.reference.pco2Band.high
+    ? { pco2: x.pco2, timing: x.timing }
+    : null;
+}
+
 /** Name every process: the primary first, then each added one. */
 export function classify(x: ClassifyInput): Classification {
   const status = phStatus(x.ph);
@@ -164,43 +316,33 @@ export function classify(x: ClassifyInput): Classification {
   const add = (d: Disorder) => {
     if (!disorders.some((e) => e.code === d.code && e.detail === d.detail)) disorders.push(d);
   };
+  const ag = x.anionGap;
+  const gapRaised = raised(ag);
   let compensation: Compensation | null = null;
   let expectedPco2: Band | null = null;
   let expectedHco3Band: Band | null = null;
-  const normalPhMixedBasis = status === 'normal' ? 'normal_ph_mixed' : 'explains_ph';
+  let usual: UsualPoint | null = x.reference.usual;
+  const basisOf = (verdict: Compensation['verdict']): DisorderBasis =>
+    verdict === 'within' ? 'explains_ph' : status === 'normal' ? 'normal_ph_mixed' : 'explains_ph';
 
   if (primary === 'metabolic_acidosis' || primary === 'metabolic_alkalosis') {
+    compensation = metabolicCompensation(x, primary);
+    expectedPco2 = compensation.expected;
     const acid = primary === 'metabolic_acidosis';
-    expectedPco2 = acid ? wintersPco2(x.hco3) : metabolicAlkalosisPco2(x.hco3);
-    const span = x.pco2Range ?? { low: x.pco2, high: x.pco2 };
-    const verdict =
-      span.low > expectedPco2.high ? 'above' : span.high < expectedPco2.low ? 'below' : 'within';
-    compensation = {
-      primary,
-      rule: acid ? 'winters' : 'metabolic_alkalosis',
-      timing: x.timing,
-      expected: expectedPco2,
-      observed: x.pco2,
-      verdict,
-      fit: null,
-      acute: null,
-      chronic: null,
-      pco2Basis: x.pco2Basis ?? 'measured',
-    };
     add({
       code: primary,
-      detail: acid ? anionGapDetail(x.anionGap) : null,
+      detail: acid ? anionGapDetail(ag) : null,
       role: 'primary',
-      basis: verdict === 'within' ? 'explains_ph' : normalPhMixedBasis,
+      basis: basisOf(compensation.verdict),
     });
-    if (verdict === 'above')
+    if (compensation.verdict === 'above')
       add({
         code: 'respiratory_acidosis',
         detail: null,
         role: 'added',
         basis: 'pco2_above_expected',
       });
-    if (verdict === 'below')
+    if (compensation.verdict === 'below')
       add({
         code: 'respiratory_alkalosis',
         detail: null,
@@ -208,96 +350,57 @@ export function classify(x: ClassifyInput): Classification {
         basis: 'pco2_below_expected',
       });
   } else if (primary === 'respiratory_acidosis' || primary === 'respiratory_alkalosis') {
-    const acidosis = primary === 'respiratory_acidosis';
-    const e = expectedHco3(x.pco2, x.timing, x.reference);
-    expectedHco3Band = e.band;
-    const verdict = verdictOf(x.hco3, e.band);
-    const fit = respiratoryFit(x.hco3, e.acute, e.chronic);
-    compensation = {
-      primary,
-      rule: acidosis ? 'respiratory_acidosis' : 'respiratory_alkalosis',
-      timing: x.timing,
-      expected: e.band,
-      observed: x.hco3,
-      verdict,
-      fit,
-      acute: e.acute,
-      chronic: e.chronic,
-      pco2Basis: x.pco2Basis ?? 'measured',
-    };
-    const chronicBaseline =
-      x.reference.kind === 'baseline' &&
-      (x.reference.pco2 > NORMAL.pco2.high || x.reference.pco2 < NORMAL.pco2.low);
-    let detail: DisorderDetail | null;
-    if (x.timing === 'acute') detail = chronicBaseline ? 'acute_on_chronic' : 'acute';
-    else if (x.timing === 'chronic') detail = 'chronic';
-    else
-      detail =
-        fit === 'acute'
-          ? chronicBaseline
-            ? 'acute_on_chronic'
-            : 'acute'
-          : fit === 'chronic'
-            ? 'chronic'
-            : fit === 'between'
-              ? 'acute_on_chronic'
-              : null;
-    add({
-      code: primary,
-      detail,
-      role: 'primary',
-      basis: verdict === 'within' ? 'explains_ph' : normalPhMixedBasis,
-    });
-    if (verdict === 'above')
+    const r = respiratoryCompensation(x, primary, gapRaised);
+    compensation = r.compensation;
+    expectedHco3Band = compensation.expected;
+    usual = r.usual;
+    add({ code: primary, detail: r.detail, role: 'primary', basis: basisOf(compensation.verdict) });
+    if (compensation.verdict === 'above')
       add({
         code: 'metabolic_alkalosis',
         detail: null,
         role: 'added',
         basis: 'hco3_above_expected',
       });
-    if (verdict === 'below')
+    if (compensation.verdict === 'below')
       add({
         code: 'metabolic_acidosis',
-        detail: anionGapDetail(x.anionGap),
+        detail: anionGapDetail(ag),
         role: 'added',
         basis: 'hco3_below_expected',
       });
   }
 
-  // The anion gap can reveal what the HCO3 hides (Kraut and Madias 2007; Wrenn 1990).
-  const ag = x.anionGap;
-  if (ag && ag.value > ag.upperLimit) {
-    const hasHighGap = disorders.some(
-      (d) => d.code === 'metabolic_acidosis' && d.detail === 'high_anion_gap',
-    );
-    if (!hasHighGap) {
-      const relabel = disorders.find((d) => d.code === 'metabolic_acidosis' && d.detail === null);
-      if (relabel) relabel.detail = 'high_anion_gap';
-      else
-        add({
-          code: 'metabolic_acidosis',
-          detail: 'high_anion_gap',
-          role: disorders.length ? 'added' : 'primary',
-          basis: 'raised_gap_hidden',
-        });
-    }
-    if (ag.deltaRatio === null) {
+  // The anion gap can reveal what the HCO3 hides (Kraut and Madias 2007); the delta ratio, against the HCO3 that
+  // applies, what else is there (Wrenn 1990; clinical-scope section 10).
+  let delta: DeltaReading | null = null;
+  if (ag && gapRaised) {
+    const unnamed = disorders.find((d) => d.code === 'metabolic_acidosis' && d.detail === null);
+    if (unnamed) unnamed.detail = 'high_anion_gap';
+    add({
+      code: 'metabolic_acidosis',
+      detail: 'high_anion_gap',
+      role: disorders.length ? 'added' : 'primary',
+      basis: 'raised_gap_hidden',
+    });
+    const references = deltaReferences({ ...x.reference, usual }, respiratoryShift(x, disorders));
+    delta = readDelta(ag.value, ag.normal, x.hco3, references);
+    if (delta.implies === 'alkalosis')
       add({
         code: 'metabolic_alkalosis',
         detail: null,
         role: 'added',
-        basis: 'raised_gap_with_high_hco3',
+        basis: delta.points.every((p) => p.ratio === null)
+          ? 'raised_gap_with_high_hco3'
+          : 'delta_ratio_high',
       });
-    } else if (ag.deltaRatio > 2) {
-      add({ code: 'metabolic_alkalosis', detail: null, role: 'added', basis: 'delta_ratio_high' });
-    } else if (ag.deltaRatio < 0.8) {
+    if (delta.implies === 'normal_gap_acidosis')
       add({
         code: 'metabolic_acidosis',
         detail: 'normal_anion_gap',
         role: 'added',
         basis: 'delta_ratio_mixed',
       });
-    }
   }
   // the first named process is the primary one
   disorders.forEach((d, i) => {
@@ -309,5 +412,7 @@ export function classify(x: ClassifyInput): Classification {
     compensation,
     expectedPco2,
     expectedHco3: expectedHco3Band,
+    usual,
+    delta,
   };
 }

@@ -18,14 +18,20 @@ export const wintersPco2 = (hco3: number): Band => band(1.5 * hco3 + 8);
 // Metabolic alkalosis (Berend 2014): expected PaCO2 = 0.7 x HCO3 + 21 (+/- 2).
 export const metabolicAlkalosisPco2 = (hco3: number): Band => band(0.7 * hco3 + 21);
 
+/** HCO3 change per mmHg of PaCO2 (Berend 2014): acidosis 1 (acute) or 3.5 (chronic) per 10 mmHg; alkalosis 2 (acute)
+ * or 4-5 (chronic) per 10 mmHg, whose middle, 4.5, stands for the chronic rule where one figure is needed. */
+export const RESPIRATORY_RATE = {
+  acidosis: { acute: 0.1, chronic: 0.35 },
+  alkalosis: { acute: 0.2, chronic: 0.45 },
+} as const;
+
 // Respiratory acidosis (Berend 2014): HCO3 rises 1 (acute) or 3.5 (chronic) mmol/L per 10 mmHg above the reference.
 export function respiratoryAcidosisHco3(
   pco2: number,
   timing: 'acute' | 'chronic',
   ref = { pco2: 40, hco3: 24 },
 ): Band {
-  const rate = timing === 'acute' ? 1 : 3.5;
-  return band(ref.hco3 + (rate * (pco2 - ref.pco2)) / 10);
+  return band(ref.hco3 + RESPIRATORY_RATE.acidosis[timing] * (pco2 - ref.pco2));
 }
 
 // Respiratory alkalosis (Berend 2014): HCO3 falls 2 (acute) or 4-5 (chronic) mmol/L per 10 mmHg below the reference.
@@ -35,7 +41,7 @@ export function respiratoryAlkalosisHco3(
   ref = { pco2: 40, hco3: 24 },
 ): Band {
   const drop = (ref.pco2 - pco2) / 10;
-  if (timing === 'acute') return band(ref.hco3 - 2 * drop);
+  if (timing === 'acute') return band(ref.hco3 - 10 * RESPIRATORY_RATE.alkalosis.acute * drop);
   const a = ref.hco3 - 5 * drop,
     b = ref.hco3 - 4 * drop;
   return { low: Math.min(a, b) - COMPENSATION_BAND, high: Math.max(a, b) + COMPENSATION_BAND };
@@ -57,3 +63,6 @@ export function expectedHco3(
     chronic,
   };
 }
+
+/** The middle of a band: the single figure a rule expects. */
+export const centre = (b: Band): number => (b.low + b.high) / 2;

@@ -277,8 +277,11 @@ export const FIELDS = [
   { path: 'context.baseline.hco3', label: 'Usual HCO3', unit: 'mmol/L', range: [1, 70], decimals: 1, step: 'timing', optional: true },
   { path: 'context.baseline.ph', label: 'Usual pH', unit: '', range: [6.5, 8.0], decimals: 2, step: 'timing', optional: true },
   // common practice
-  { path: 'context.barometricPressure', label: 'Barometric pressure', unit: 'mmHg', quantity: 'pressure', range: [400, 800], decimals: 0 },
-  { path: 'context.altitudeM', label: 'Altitude', unit: 'm', range: [-500, 6000], decimals: 0 },
+  {
+    path: 'context.barometricPressure', label: 'Barometric pressure', unit: 'mmHg', quantity: 'pressure', range: [400, 800], decimals: 0,
+    step: 'oxygen', optional: true,
+  },
+  { path: 'context.altitudeM', label: 'Altitude', ask: 'Altitude above sea level', unit: 'm', range: [-500, 6000], decimals: 0, step: 'oxygen', optional: true },
   {
     // common practice
     path: 'context.temperatureC', label: 'Temperature', ask: 'Patient temperature', unit: '°C', range: [25, 43], decimals: 1, ucum: ['Cel'],

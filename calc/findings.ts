@@ -7,6 +7,8 @@ import type { Band } from './compensation.ts';
 import type { Compensation, Disorder, PhStatus } from './classify.ts';
 import type { ReferencePoint } from './referencePoint.ts';
 import type { DeltaBand } from './anionGap.ts';
+import type { DeltaReading } from './deltaReference.ts';
+import type { GlucoseReading } from './readGlucose.ts';
 import type { LactateBand } from './osmolality.ts';
 import type { OxygenationLevel, PfBand } from './oxygenation.ts';
 import type { Flag } from './flags.ts';
@@ -23,6 +25,8 @@ export const DERIVED_NUMBERS = [
   'anionGap',
   'anionGapCorrected',
   'deltaRatio',
+  'deltaRatioAcute',
+  'deltaRatioChronic',
   'standardBaseExcess',
   'sodiumChlorideEffect',
   'albuminEffect',
@@ -30,6 +34,10 @@ export const DERIVED_NUMBERS = [
   'apparentSid',
   'effectiveSid',
   'strongIonGap',
+  'usualPco2',
+  'usualHco3',
+  'correctedSodium',
+  'effectiveOsmolality',
   'calculatedOsmolality',
   'osmolarGap',
   'urineAnionGap',
@@ -38,6 +46,7 @@ export const DERIVED_NUMBERS = [
   'aaGradient',
   'aaGradientExpected',
   'pfRatio',
+  'pfRatioAdjusted',
   'sfRatio',
   'oxygenContent',
   'predictedBodyWeightKg',
@@ -82,11 +91,18 @@ export interface Metabolic {
   anionGapUpperLimit: number;
   anionGapRaised: boolean | null;
   anionGapUsed: 'corrected' | 'uncorrected' | null;
+  /** Wrenn's band when the gap was measured against one reference HCO3 and the HCO3 fell from it */
   deltaBand: DeltaBand | null;
+  /** the delta ratio against the HCO3 that applies (one reference, or acute and chronic) */
+  delta: DeltaReading | null;
   lactateBand: LactateBand | null;
   osmolarGapRaised: boolean | null;
   urineAnionGapNegative: boolean | null;
   urineChlorideResponsive: boolean | null;
+  /** urine values given but not read, because the disorder they speak to is absent: the urine anion gap is read in a
+   *  normal-AG metabolic acidosis only, urine chloride in a metabolic alkalosis only */
+  urineNotRead: { anionGap: boolean; chloride: boolean };
+  glucose: GlucoseReading | null;
 }
 
 export interface Oxygenation {
@@ -100,6 +116,11 @@ export interface Oxygenation {
   sfMeetsCriterion: boolean | null;
   aaRaised: boolean | null;
   lowInspiredOrHypoventilation: boolean;
+  /** hypoxaemia with a normal A-a gradient and no hypercapnia below sea-level pressure: a low inspired PO2 (altitude),
+   *  not type 1 respiratory failure */
+  lowInspiredPo2: boolean;
+  /** the ratio the Berlin bands were judged on: at altitude, P/F x PB/760 */
+  pfBandFrom: 'measured' | 'altitude_adjusted' | null;
 }
 
 export interface Ventilation {

@@ -28,7 +28,13 @@ export type FlagCode =
   | 'no_ventilation_target'
   | 'suggestion_from_venous_pco2'
   | 'osmolar_gap_raised'
-  | 'lactate_raised';
+  | 'lactate_raised'
+  | 'relative_hypoventilation'
+  | 'ketoacidosis_pattern'
+  | 'hyperosmolar_state'
+  | 'potassium_before_insulin'
+  | 'pf_adjusted_for_altitude'
+  | 'low_inspired_po2';
 
 export type Severity = 'critical' | 'warning' | 'info';
 

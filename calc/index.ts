@@ -53,7 +53,11 @@ export type {
   DisorderDetail,
   PhStatus,
 } from './classify.ts';
-export type { ReferencePoint } from './referencePoint.ts';
+export type { ReferencePoint, UsualPoint } from './referencePoint.ts';
+export { CONDITIONS, type Condition } from './conditions.ts';
+export type { DeltaBasis, DeltaPoint, DeltaReading } from './deltaReference.ts';
+export type { GlucoseReading } from './readGlucose.ts';
+export type { HypoventilationReason } from './hypoventilation.ts';
 export type { Explanation, How, Input } from './explain.ts';
 export { round } from './explain.ts';
 export { SOURCES, type SourceKey } from './sources.ts';
@@ -62,6 +66,9 @@ export * as acidBase from './acidBase.ts';
 export * as anionGap from './anionGap.ts';
 export * as classification from './classify.ts';
 export * as compensation from './compensation.ts';
+export * as deltaReference from './deltaReference.ts';
+export * as glucose from './glucose.ts';
+export * as hypoventilation from './hypoventilation.ts';
 export * as referencePoints from './referencePoint.ts';
 export * as osmolality from './osmolality.ts';
 export * as oxygenation from './oxygenation.ts';

@@ -16,12 +16,11 @@ import {
   hydrogenIon,
   type Consistency,
 } from './acidBase.ts';
-import type { Band } from './compensation.ts';
-import { classify, phStatus, type Compensation } from './classify.ts';
+import { classify, phStatus } from './classify.ts';
 import { referencePoint, type ReferencePoint } from './referencePoint.ts';
 import { standardBaseExcess } from './physicochemical.ts';
 import { bySeverity, flag, type Flag } from './flags.ts';
-import { explanation, input, record, round, type How, type Input } from './explain.ts';
+import { input, record, round } from './explain.ts';
 import { MMHG_PER_KPA } from './units.ts';
 import {
   type Book,
@@ -31,7 +30,8 @@ import {
   emptyDerived,
   has,
 } from './findings.ts';
-import { anionGapPart, emptyMetabolic, otherMetabolic } from './readMetabolic.ts';
+import { anionGapPart, deltaPart, emptyMetabolic, otherMetabolic } from './readMetabolic.ts';
+import { explainCompensation, explainUsual, hypoventilationFlags } from './readAcidBase.ts';
 import { notAssessed, oxygenationPart, venousPart } from './readOxygenation.ts';
 import { ventilationPart } from './readVentilation.ts';
 import { changesSince, inTimeOrder, serialPart } from './readSerial.ts';
@@ -197,7 +197,6 @@ function readCase(c: CanonicalCase): Findings {
       }),
     );
   const sbe = acidBaseNumbers(c, book);
-  const reference = referencePoint(c.context.baseline, c.patient.pregnant, g.hco3, g.pco2);
 
   // Henderson check of the report (clinical-scope section 2)
   let consistency: Consistency | null = null;
@@ -215,6 +214,13 @@ function readCase(c: CanonicalCase): Findings {
 
   const metabolic = emptyMetabolic(c.settings);
   const anionGap = anionGapPart(c, book, metabolic);
+  // a usual pH alone cannot stand on an HCO3 that a raised-AG acidosis has lowered (clinical-scope section 10)
+  const judged = referencePoint(
+    c.context.baseline,
+    c.patient.pregnant,
+    g.hco3,
+    metabolic.anionGapRaised === true,
+  );
   // a venous PCO2 is judged against the rules by its arterial estimate (Byrne et al. 2014, from memory)
   const venousEstimate = c.sample === 'venous' && g.pco2 >= VENOUS.minPco2;
   const classification = classify({
@@ -222,17 +228,22 @@ function readCase(c: CanonicalCase): Findings {
     pco2: venousEstimate ? g.pco2 - VENOUS.pco2Mid : g.pco2,
     hco3: g.hco3,
     timing: c.context.timing,
-    reference,
+    reference: judged,
     anionGap,
     pco2Basis: venousEstimate ? 'venous_estimate' : 'measured',
     // the arterial PCO2 lies at or below the venous one, on average 4-6 mmHg lower: an added respiratory process
     // is named only when the whole span from venous - 6 to the venous value itself is outside the band
     pco2Range: venousEstimate ? { low: g.pco2 - VENOUS.pco2High, high: g.pco2 } : undefined,
   });
+  // the usual point, however it was obtained, is the one every later check uses
+  const reference: ReferencePoint = { ...judged, usual: classification.usual };
+  deltaPart(c, book, metabolic, classification);
   explainCompensation(classification.compensation, reference, g, book);
+  explainUsual(reference, g, book, flags);
   contextFlags(c, reference, flags);
+  hypoventilationFlags(c, classification, flags);
 
-  otherMetabolic(c, sbe, book, metabolic, flags);
+  otherMetabolic(c, sbe, book, metabolic, flags, classification.disorders);
   const oxygenation = oxygenationPart(c, book, flags);
   const venous = venousPart(c, flags);
   const { ventilation, deadSpace } = ventilationPart(c, book, flags, classification, reference);
@@ -259,73 +270,11 @@ function readCase(c: CanonicalCase): Findings {
 function contextFlags(c: CanonicalCase, reference: ReferencePoint, flags: Flag[]) {
   if (reference.kind === 'pregnancy')
     flags.push(flag('pregnancy_reference', 'info', { pco2: reference.pco2, hco3: reference.hco3 }));
-  if (reference.kind === 'baseline' && (reference.estimated.pco2 || reference.estimated.hco3))
-    flags.push(
-      flag('baseline_estimated', 'info', {
-        pco2: round(reference.pco2, 1),
-        hco3: round(reference.hco3, 1),
-        pco2Estimated: reference.estimated.pco2,
-        hco3Estimated: reference.estimated.hco3,
-      }),
-    );
   const { ageYears } = c.patient;
   if (has(ageYears) && ageYears < 16) flags.push(flag('adult_rules_only', 'warning', { ageYears }));
   const { temperatureC } = c.context;
   if (has(temperatureC) && Math.abs(temperatureC - 37) > 1)
     flags.push(flag('temperature_not_37', 'warning', { temperatureC }));
-}
-
-/** The expected band of the compensation rule that was applied, as a derived value with its explanation. */
-function explainCompensation(comp: Compensation | null, ref: ReferencePoint, g: Gas, book: Book) {
-  if (!comp) return;
-  const rounded = (b: Band): Band => ({ low: round(b.low, 1), high: round(b.high, 1) });
-  const mid = (b: Band) => (b.low + b.high) / 2;
-  const refInputs: Input[] = [
-    input('Reference PaCO2', round(ref.pco2, 1), P),
-    input('Reference HCO3', round(ref.hco3, 1), M),
-  ];
-  const acidosis = comp.rule === 'respiratory_acidosis';
-  const respiratory: Record<'acute' | 'chronic' | 'unknown', string> = acidosis
-    ? {
-        acute: 'HCO3 = ref HCO3 + 1 x (PaCO2 - ref PaCO2) / 10 (+/- 2)',
-        chronic: 'HCO3 = ref HCO3 + 3.5 x (PaCO2 - ref PaCO2) / 10 (+/- 2)',
-        unknown: 'from acute (1 per 10 mmHg) to chronic (3.5 per 10 mmHg), +/- 2',
-      }
-    : {
-        acute: 'HCO3 = ref HCO3 - 2 x (ref PaCO2 - PaCO2) / 10 (+/- 2)',
-        chronic: 'HCO3 = ref HCO3 - 4 to 5 x (ref PaCO2 - PaCO2) / 10 (+/- 2)',
-        unknown: 'from acute (2 per 10 mmHg) to chronic (4-5 per 10 mmHg), +/- 2',
-      };
-  const how: How =
-    comp.rule === 'winters'
-      ? {
-          label: 'Expected PaCO2 (Winters)',
-          unit: P,
-          decimals: 1,
-          formula: 'PaCO2 = 1.5 x HCO3 + 8 (+/- 2)',
-          inputs: [input('HCO3', g.hco3, M)],
-          source: 'winters',
-        }
-      : comp.rule === 'metabolic_alkalosis'
-        ? {
-            label: 'Expected PaCO2 (metabolic alkalosis)',
-            unit: P,
-            decimals: 1,
-            formula: 'PaCO2 = 0.7 x HCO3 + 21 (+/- 2)',
-            inputs: [input('HCO3', g.hco3, M)],
-            source: 'berend2014',
-          }
-        : {
-            label: `Expected HCO3 (respiratory ${acidosis ? 'acidosis' : 'alkalosis'})`,
-            unit: M,
-            decimals: 1,
-            formula: respiratory[comp.timing],
-            inputs: [input('PaCO2', g.pco2, P), ...refInputs],
-            source: 'berend2014',
-          };
-  const key = how.unit === P ? 'expectedPco2' : 'expectedHco3';
-  book.derived[key] = rounded(comp.expected);
-  book.explain[key] = explanation(key, mid(comp.expected), how);
 }
 
 function criticalFlags(c: CanonicalCase, flags: Flag[], withheld: boolean) {

@@ -5,10 +5,11 @@ import {
   albuminCorrectedAnionGap,
   anionGap,
   chlorideResponsive,
-  deltaRatio,
-  deltaRatioBand,
   urineAnionGap,
 } from './anionGap.ts';
+import type { Classification, Disorder } from './classify.ts';
+import { glucosePart } from './readGlucose.ts';
+import type { DeltaBasis, DeltaPoint } from './deltaReference.ts';
 import { calculatedOsmolality, lactateBand, osmolarGap, osmolarGapRaised } from './osmolality.ts';
 import {
   apparentStrongIonDifference,
@@ -29,10 +30,13 @@ export function emptyMetabolic(s: Settings): Metabolic {
     anionGapRaised: null,
     anionGapUsed: null,
     deltaBand: null,
+    delta: null,
     lactateBand: null,
     osmolarGapRaised: null,
     urineAnionGapNegative: null,
     urineChlorideResponsive: null,
+    urineNotRead: { anionGap: false, chloride: false },
+    glucose: null,
   };
 }
 
@@ -69,20 +73,49 @@ export function anionGapPart(c: CanonicalCase, book: Book, m: Metabolic) {
   const upper = s.anionGapNormal + s.anionGapHalfWidth;
   m.anionGapUpperLimit = upper;
   m.anionGapRaised = used > upper;
-  const ratio = deltaRatio(used, g.hco3, s.anionGapNormal);
-  if (ratio !== null) {
-    const name = m.anionGapUsed === 'corrected' ? 'AGc' : 'AG';
-    record(book, 'deltaRatio', ratio, {
-      label: 'Delta ratio',
-      unit: '',
-      decimals: 2,
-      formula: `delta ratio = (${name} - ${s.anionGapNormal}) / (24 - HCO3)`,
-      inputs: [input(name, round(used, 1), M), input('HCO3', g.hco3, M)],
-      source: 'wrenn1990',
-    });
-    m.deltaBand = deltaRatioBand(ratio);
+  return { value: used, upperLimit: upper, normal: s.anionGapNormal };
+}
+
+const REFERENCE_NAME: Record<DeltaBasis, string> = {
+  textbook: 'Reference HCO3 (textbook)',
+  pregnancy: 'Reference HCO3 (pregnancy)',
+  usual: 'Reference HCO3 (usual, with the acute change since)',
+  respiratory_acute: 'Reference HCO3 (acute respiratory rule)',
+  respiratory_chronic: 'Reference HCO3 (chronic respiratory rule)',
+};
+
+/** The delta ratio against the HCO3 that applies, recorded once per reference it was measured against. */
+export function deltaPart(c: CanonicalCase, book: Book, m: Metabolic, cl: Classification) {
+  const d = cl.delta;
+  if (!d) return;
+  m.delta = d;
+  const single = d.points.length === 1 ? d.points[0] : undefined;
+  m.deltaBand = single && single.verdict !== 'hco3_not_lowered' ? single.verdict : null;
+  const name = m.anionGapUsed === 'corrected' ? 'AGc' : 'AG';
+  const used =
+    m.anionGapUsed === 'corrected' ? book.derived.anionGapCorrected : book.derived.anionGap;
+  const normal = c.settings.anionGapNormal;
+  const both = d.points.length > 1;
+  for (const p of d.points.filter((x): x is DeltaPoint & { ratio: number } => x.ratio !== null)) {
+    const chronic = p.basis === 'respiratory_chronic';
+    record(
+      book,
+      both ? (chronic ? 'deltaRatioChronic' : 'deltaRatioAcute') : 'deltaRatio',
+      p.ratio,
+      {
+        label: both ? `Delta ratio (if ${chronic ? 'chronic' : 'acute'})` : 'Delta ratio',
+        unit: '',
+        decimals: 2,
+        formula: `delta ratio = (${name} - ${normal}) / (reference HCO3 - HCO3)`,
+        inputs: [
+          input(name, used ?? 0, M),
+          input(REFERENCE_NAME[p.basis], round(p.referenceHco3, 1), M),
+          input('HCO3', c.gas.hco3, M),
+        ],
+        source: 'wrenn1990',
+      },
+    );
   }
-  return { value: used, upperLimit: upper, normal: s.anionGapNormal, deltaRatio: ratio };
 }
 
 function osmolality(c: CanonicalCase, book: Book, m: Metabolic, flags: Flag[]) {
@@ -122,8 +155,15 @@ function osmolality(c: CanonicalCase, book: Book, m: Metabolic, flags: Flag[]) {
     source: 'purssell2001',
   });
   m.osmolarGapRaised = osmolarGapRaised(gap);
+  // a measured ethanol is already in the calculated osmolality (Purssell 2001): it does not explain what is left
   if (m.osmolarGapRaised)
-    flags.push(flag('osmolar_gap_raised', 'warning', { osmolarGap: round(gap, 1) }));
+    flags.push(
+      flag('osmolar_gap_raised', 'warning', {
+        osmolarGap: round(gap, 1),
+        ethanolMeasured: has(ethanol),
+        anionGapRaised: m.anionGapRaised === true,
+      }),
+    );
 }
 
 function physicochemical(c: CanonicalCase, sbe: number, book: Book) {
@@ -199,20 +239,32 @@ function physicochemical(c: CanonicalCase, sbe: number, book: Book) {
   });
 }
 
-function urine(c: CanonicalCase, book: Book, m: Metabolic) {
+// The urine anion gap speaks to a normal-AG metabolic acidosis only (in a raised-AG state the unmeasured urinary
+// anions, ketones among them, make it misleading); urine chloride to a metabolic alkalosis only (common practice).
+function urine(c: CanonicalCase, book: Book, m: Metabolic, disorders: Disorder[]) {
   const u = c.urine;
+  const named = (code: Disorder['code'], detail?: Disorder['detail']) =>
+    disorders.some((d) => d.code === code && (detail === undefined || d.detail === detail));
+  const normalGapOnly =
+    named('metabolic_acidosis', 'normal_anion_gap') &&
+    !named('metabolic_acidosis', 'high_anion_gap');
   if (has(u.na) && has(u.k) && has(u.cl)) {
-    const uag = record(book, 'urineAnionGap', urineAnionGap(u.na, u.k, u.cl), {
-      label: 'Urine anion gap',
-      unit: M,
-      decimals: 0,
-      formula: 'uNa + uK - uCl',
-      inputs: [input('Urine Na', u.na, M), input('Urine K', u.k, M), input('Urine Cl', u.cl, M)],
-      source: 'commonPractice',
-    });
-    m.urineAnionGapNegative = uag < 0;
+    if (normalGapOnly) {
+      const uag = record(book, 'urineAnionGap', urineAnionGap(u.na, u.k, u.cl), {
+        label: 'Urine anion gap',
+        unit: M,
+        decimals: 0,
+        formula: 'uNa + uK - uCl',
+        inputs: [input('Urine Na', u.na, M), input('Urine K', u.k, M), input('Urine Cl', u.cl, M)],
+        source: 'commonPractice',
+      });
+      m.urineAnionGapNegative = uag < 0;
+    } else m.urineNotRead.anionGap = true;
   }
-  if (has(u.cl)) m.urineChlorideResponsive = chlorideResponsive(u.cl);
+  if (has(u.cl)) {
+    if (named('metabolic_alkalosis')) m.urineChlorideResponsive = chlorideResponsive(u.cl);
+    else m.urineNotRead.chloride = true;
+  }
 }
 
 export function otherMetabolic(
@@ -221,6 +273,7 @@ export function otherMetabolic(
   book: Book,
   m: Metabolic,
   flags: Flag[],
+  disorders: Disorder[],
 ) {
   const lactate = c.gas.lactate;
   if (has(lactate)) {
@@ -235,5 +288,6 @@ export function otherMetabolic(
   }
   osmolality(c, book, m, flags);
   physicochemical(c, sbe, book);
-  urine(c, book, m);
+  urine(c, book, m, disorders);
+  m.glucose = glucosePart(c, book, flags, disorders);
 }

@@ -31,6 +31,8 @@ export function notAssessed(c: CanonicalCase): Oxygenation {
     sfMeetsCriterion: null,
     aaRaised: null,
     lowInspiredOrHypoventilation: false,
+    lowInspiredPo2: false,
+    pfBandFrom: null,
   };
 }
 
@@ -132,6 +134,7 @@ export function oxygenationPart(c: CanonicalCase, book: Book, flags: Flag[]): Ox
       }),
     );
   const roomAir = Math.abs(fio2 - OXYGENATION.roomAirFio2) < 0.005;
+  const atAltitude = pb < PHYSIOLOGY.seaLevelMmHg - 0.5;
   const age = c.patient.ageYears;
   if (has(age)) {
     const expected = record(book, 'aaGradientExpected', expectedAaGradient(age), {
@@ -145,6 +148,7 @@ export function oxygenationPart(c: CanonicalCase, book: Book, flags: Flag[]): Ox
     if (roomAir) {
       o.aaRaised = gradient > expected;
       o.lowInspiredOrHypoventilation = o.level !== 'normal' && !o.aaRaised;
+      if (atAltitude) lowInspiredPo2(c, o, { pb, alveolar, gradient }, flags);
     } else flags.push(flag('aa_reference_room_air_only', 'info', { fio2 }));
   }
   const pf = record(book, 'pfRatio', pfRatio(g.po2, fio2), {
@@ -157,7 +161,51 @@ export function oxygenationPart(c: CanonicalCase, book: Book, flags: Flag[]): Ox
   });
   o.pfBandApplies = has(peep) && peep >= OXYGENATION.pfMinimumPeep;
   o.pfBand = pfBand(pf);
+  o.pfBandFrom = 'measured';
+  // Berlin definition: below sea-level pressure the oxygenation criterion uses P/F x PB/760
+  if (atAltitude) {
+    const adjusted = record(book, 'pfRatioAdjusted', pf * (pb / PHYSIOLOGY.seaLevelMmHg), {
+      label: 'P/F ratio adjusted for altitude',
+      unit: P,
+      decimals: 0,
+      formula: 'P/F x PB / 760',
+      inputs: [input('P/F', round(pf, 0), P), input('PB', round(pb, 0), P)],
+      source: 'ardsBerlin',
+    });
+    o.pfBand = pfBand(adjusted);
+    o.pfBandFrom = 'altitude_adjusted';
+    flags.push(
+      flag('pf_adjusted_for_altitude', 'info', {
+        pfRatio: round(pf, 0),
+        pfRatioAdjusted: round(adjusted, 0),
+        barometricPressure: round(pb, 0),
+        band: o.pfBand,
+        bandApplies: o.pfBandApplies,
+      }),
+    );
+  }
   return o;
+}
+
+// Below sea-level pressure, hypoxaemia with a normal A-a gradient and no hypercapnia is the low inspired PO2 of
+// altitude, not type 1 respiratory failure (clinical-scope section 10).
+function lowInspiredPo2(
+  c: CanonicalCase,
+  o: Oxygenation,
+  at: { pb: number; alveolar: number; gradient: number },
+  flags: Flag[],
+) {
+  o.lowInspiredPo2 = o.lowInspiredOrHypoventilation && c.gas.pco2 <= OXYGENATION.hypercapnia;
+  if (!o.lowInspiredPo2) return;
+  if (o.failureType === 1) o.failureType = null;
+  flags.push(
+    flag('low_inspired_po2', 'info', {
+      barometricPressure: round(at.pb, 0),
+      altitudeM: o.barometricSource === 'altitude' ? c.context.altitudeM : null,
+      alveolarPo2: round(at.alveolar, 1),
+      aaGradient: round(at.gradient, 1),
+    }),
+  );
 }
 
 export function venousPart(c: CanonicalCase, flags: Flag[]): Venous | null {

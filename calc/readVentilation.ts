@@ -6,7 +6,7 @@ import { NORMAL, VENTILATION } from './reference.ts';
 import { hydrogenIon } from './acidBase.ts';
 import { wintersPco2 } from './compensation.ts';
 import type { Classification } from './classify.ts';
-import type { ReferencePoint } from './referencePoint.ts';
+import { usualPco2, type ReferencePoint } from './referencePoint.ts';
 import {
   alveolarVentilation,
   co2ProductionEstimate,
@@ -350,29 +350,15 @@ export function ventilationPart(
         }),
       );
   }
-  const usual = usualPco2(c, cl, ref);
+  const usual = usualPco2(ref);
   out.usualPco2 = usual;
   if (usual !== null && target < usual)
     flags.push(
       flag('target_pco2_below_baseline', 'warning', {
         target: round(target, 1),
         usual: round(usual, 1),
-        estimated: ref.kind !== 'baseline' || ref.estimated.pco2,
+        estimated: ref.usual?.estimated.pco2 === true,
       }),
     );
   return { ventilation: out, deadSpace: vd };
-}
-
-/** The patient's usual PaCO2 in chronic hypercapnia: stated, estimated from the baseline, or from the chronic HCO3. */
-export function usualPco2(c: CanonicalCase, cl: Classification, ref: ReferencePoint): N {
-  if (ref.kind === 'baseline') return ref.pco2 > NORMAL.pco2.high ? ref.pco2 : null;
-  const chronicHypercapnia = cl.disorders.some(
-    (x) =>
-      x.code === 'respiratory_acidosis' &&
-      (x.detail === 'chronic' || x.detail === 'acute_on_chronic'),
-  );
-  if (!chronicHypercapnia) return null;
-  // invert the chronic rule (Berend 2014): usual PaCO2 = 40 + (HCO3 - 24) x 10 / 3.5, an estimate
-  const estimate = 40 + ((c.gas.hco3 - 24) * 10) / 3.5;
-  return estimate > NORMAL.pco2.high ? Math.min(estimate, c.gas.pco2) : null;
 }

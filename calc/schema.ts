@@ -2,6 +2,7 @@
 // entry is judged by the same range as mmHg. Every error names the path of its field.
 import { z } from 'zod';
 import { FIELD, FIELDS, fieldsOf, keyOf, MAX_PREVIOUS_GASES, PREVIOUS_SETTINGS } from './fields.ts';
+import { CONDITIONS } from './conditions.ts';
 import type { FieldPath, FieldSpec, KeysOf } from './fields.ts';
 import {
   QUANTITIES,
@@ -105,6 +106,12 @@ export const caseShape = z.strictObject({
   context: group('context', {
     ...numbersOf('context'),
     timing: oneOf('Timing', ['acute', 'chronic', 'unknown']).nullish(),
+    conditions: z
+      .array(oneOf('Condition', CONDITIONS), {
+        error: 'conditions must be a list of known conditions',
+      })
+      .max(CONDITIONS.length * 2, 'conditions lists too many entries')
+      .nullish(),
     baseline: group('context.baseline', numbersOf('context.baseline')).nullish(),
   }).nullish(),
   oxygen: group('oxygen', numbersOf('oxygen')).nullish(),

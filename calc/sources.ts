@@ -37,6 +37,18 @@ export const SOURCES = {
     'Sinha P et al. Am J Respir Crit Care Med 2009;180:1220 (ventilatory ratio; from memory)',
   targetPco2:
     'Henderson equation with acute buffering of 0.1 mmol/L HCO3 per mmHg PaCO2 (Berend 2014 acute rule)',
+  katz1973:
+    'Katz MA. N Engl J Med 1973;289:843-4 (sodium corrected for hyperglycaemia: 1.6 mmol/L per 100 mg/dL of glucose above 100)',
+  hillier1999:
+    'Hillier TA, Abbott RD, Barrett EJ. Am J Med 1999;106:399-403 (2.4 mmol/L per 100 mg/dL)',
+  kitabchi2009:
+    'Kitabchi AE, Umpierrez GE, Miles JM, Fisher JN. Diabetes Care 2009;32:1335-43 (hyperglycaemic crises)',
+  jbdsDka:
+    'Joint British Diabetes Societies Inpatient Care Group: management of diabetic ketoacidosis in adults (ketones 3 mmol/L or more; potassium before insulin; from memory)',
+  btsAsthma:
+    'BTS/SIGN British guideline on the management of asthma (SIGN 158, 2019): a normal or raised PaCO2 in acute asthma is life-threatening (from memory)',
+  alkalosisCeiling:
+    'Common practice (from memory): respiratory compensation for a metabolic alkalosis seldom takes PaCO2 above about 55-60 mmHg',
   criticalValues: 'Common practice critical-value defaults (laboratory-specific; configurable)',
 } as const;
 

@@ -6,9 +6,11 @@ import {
   caseSchema,
   interpret,
   interpretParsed,
+  round,
   toFieldErrors,
   type Findings,
   type InterpretOptions,
+  type ReferencePoint,
 } from '../calc/index.ts';
 import type { NoteRenderer } from '../templates/index.ts';
 import { BODY_LIMIT_BYTES, jsonError } from './errors.ts';
@@ -25,6 +27,26 @@ const SAMPLES = new Set(['arterial', 'venous', 'capillary']);
 
 export const mediaType = (c: Context): string =>
   (c.req.header('content-type') ?? '').split(';')[0]!.trim().toLowerCase();
+
+/** The contract's `reference`: the point the reading was judged against, canonical units (mmHg, mmol/L), and
+ *  beside it the patient's usual point however it was obtained (stated, from a usual pH, or estimated). */
+export function referenceResponse(r: ReferencePoint) {
+  return {
+    pco2: round(r.pco2, 1),
+    hco3: round(r.hco3, 1),
+    kind: r.kind,
+    estimated: { pco2: r.estimated.pco2, hco3: r.estimated.hco3 },
+    usualPhIgnored: r.usualPhIgnored,
+    usual: r.usual
+      ? {
+          pco2: round(r.usual.pco2, 1),
+          hco3: round(r.usual.hco3, 1),
+          source: r.usual.source,
+          estimated: { pco2: r.usual.estimated.pco2, hco3: r.usual.estimated.hco3 },
+        }
+      : null,
+  };
+}
 
 /** The response body for a reading: the contract's fields first, then what the page needs to explain. */
 export function interpretResponse(
@@ -52,7 +74,7 @@ export function interpretResponse(
     note: { line: note.line, text: note.text, handover: note.handover, format: note.format },
     phStatus: f.phStatus,
     compensation: f.compensation,
-    reference: f.reference,
+    reference: referenceResponse(f.reference),
     metabolic: f.metabolic,
     oxygenation: f.oxygenation,
     ventilation: f.ventilation,

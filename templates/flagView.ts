@@ -47,11 +47,12 @@ const GAS_FIELD_LABEL: Record<string, (f: Findings) => string> = {
   lactate: () => 'lactate',
 };
 
-function gasValue(field: string | null, value: number | null, fmt: Formatter): Text {
+/** A gas or chemistry value in its unit; a limit (a threshold, not a patient's figure) is written short. */
+function gasValue(field: string | null, value: number | null, fmt: Formatter, limit = false): Text {
   if (field === null || value === null) return null;
   if (field === 'ph') return fmt.ph(value);
   if (field === 'pco2' || field === 'po2') return fmt.pressure(value);
-  return fmt.mmol(value);
+  return limit ? fmt.withUnit(value, 1, 'mmol/L') : fmt.mmol(value);
 }
 
 const which = (values: Values) => ({ suggested: str(values, 'which') === 'suggested' });
@@ -101,7 +102,9 @@ const BUILDERS: Record<FlagCode, Builder> = {
     const ref = f.reference.kind === 'pregnancy' ? f.reference : null;
     return {
       pco2: ref ? fmt.pressureBand(ref.pco2Band) : fmt.pressure(num(x, 'pco2')),
-      hco3: ref ? fmt.mmolBand(ref.hco3Band) : fmt.mmol(num(x, 'hco3')),
+      hco3: ref
+        ? fmt.range(ref.hco3Band.low, ref.hco3Band.high, 1, 'mmol/L')
+        : fmt.withUnit(num(x, 'hco3'), 1, 'mmol/L'),
     };
   },
   baseline_estimated: (x, _f, fmt) => ({
@@ -109,6 +112,8 @@ const BUILDERS: Record<FlagCode, Builder> = {
     hco3: fmt.mmol(num(x, 'hco3')),
     pco2Estimated: bool(x, 'pco2Estimated'),
     hco3Estimated: bool(x, 'hco3Estimated'),
+    fromUsualPh: str(x, 'source') === 'usual_ph',
+    fromChronicLine: str(x, 'source') === 'chronic_line',
   }),
   temperature_not_37: (x, _f, fmt) => ({
     temperature: fmt.withUnit(num(x, 'temperatureC'), 1, '°C'),
@@ -118,7 +123,7 @@ const BUILDERS: Record<FlagCode, Builder> = {
     return {
       label: field && GAS_FIELD_LABEL[field] ? GAS_FIELD_LABEL[field]!(f) : null,
       value: gasValue(field, num(x, 'value'), fmt),
-      limit: gasValue(field, num(x, 'limit'), fmt),
+      limit: gasValue(field, num(x, 'limit'), fmt, true),
       below: str(x, 'direction') === 'below',
       above: str(x, 'direction') === 'above',
       atOrAbove: str(x, 'direction') === 'above' && field === 'lactate',
@@ -177,16 +182,67 @@ const BUILDERS: Record<FlagCode, Builder> = {
   }),
   osmolar_gap_raised: (x, _f, fmt) => ({
     gap: fmt.mosm(num(x, 'osmolarGap')),
-    limit: fmt.mosm(R.OSMOLAR_GAP_RAISED),
+    limit: fmt.withUnit(R.OSMOLAR_GAP_RAISED, 0, 'mOsm/kg'),
+    ethanolMeasured: bool(x, 'ethanolMeasured'),
+    anionGapRaised: bool(x, 'anionGapRaised'),
   }),
   lactate_raised: (x, _f, fmt) => {
     const band = str(x, 'band');
     return {
       lactate: fmt.mmol(num(x, 'lactate')),
       high: band === 'high',
-      limit: fmt.mmol(band === 'high' ? R.LACTATE.high : R.LACTATE.raised),
+      limit: fmt.withUnit(band === 'high' ? R.LACTATE.high : R.LACTATE.raised, 1, 'mmol/L'),
     };
   },
+  relative_hypoventilation: (x, f, fmt) => {
+    const reason = str(x, 'reason');
+    return {
+      metabolic: reason === 'metabolic_acidosis',
+      pregnancy: reason === 'pregnancy',
+      asthma: reason === 'asthma',
+      label: co2Label(f.case.sample),
+      pco2: fmt.pressure(num(x, 'pco2')),
+      limit: fmt.pressure(num(x, 'limit')),
+      pregnancyBand: fmt.pressureBand({ low: R.PREGNANCY.pco2.low, high: R.PREGNANCY.pco2.high }),
+    };
+  },
+  ketoacidosis_pattern: (x, _f, fmt) => ({
+    glucose: fmt.field('chemistry.glucose', num(x, 'glucose')),
+    knownDiabetes: bool(x, 'knownDiabetes'),
+    ketones: fmt.withUnit(R.GLUCOSE.ketones, 1, 'mmol/L'),
+  }),
+  hyperosmolar_state: (x, _f, fmt) => ({
+    effective: fmt.mosm(num(x, 'effectiveOsmolality')),
+    glucose: fmt.field('chemistry.glucose', num(x, 'glucose')),
+    osmolalityLimit: fmt.withUnit(R.GLUCOSE.hyperosmolarOsmolality, 0, 'mOsm/kg'),
+    glucoseLimit: fmt.field('chemistry.glucose', R.GLUCOSE.hyperosmolarGlucose),
+  }),
+  potassium_before_insulin: (x, _f, fmt) => {
+    const status = str(x, 'status');
+    return {
+      k: fmt.field('chemistry.k', num(x, 'k')),
+      low: status === 'low',
+      high: status === 'high',
+      lowLimit: fmt.field('chemistry.k', R.POTASSIUM.beforeInsulinBelow),
+      highLimit: fmt.field('chemistry.k', R.POTASSIUM.highAbove),
+    };
+  },
+  pf_adjusted_for_altitude: (x, _f, fmt) => {
+    const band = str(x, 'band');
+    return {
+      pf: fmt.pfRatio(num(x, 'pfRatio')),
+      adjusted: fmt.pfRatio(num(x, 'pfRatioAdjusted')),
+      pb: fmt.pressure(num(x, 'barometricPressure')),
+      band: band === 'none' ? null : band,
+      bandApplies: bool(x, 'bandApplies'),
+    };
+  },
+  low_inspired_po2: (x, _f, fmt) => ({
+    pb: fmt.pressure(num(x, 'barometricPressure')),
+    altitude: fmt.withUnit(num(x, 'altitudeM'), 0, 'm'),
+    alveolar: fmt.pressure(num(x, 'alveolarPo2')),
+    aa: fmt.pressure(num(x, 'aaGradient')),
+  }),
 };
 
 function abs(x: number | null): number | null {
@@ -217,6 +273,12 @@ const SECTION: Record<FlagCode, FlagSection> = {
   temperature_not_37: 'interpretation',
   osmolar_gap_raised: 'interpretation',
   lactate_raised: 'interpretation',
+  relative_hypoventilation: 'interpretation',
+  ketoacidosis_pattern: 'interpretation',
+  hyperosmolar_state: 'interpretation',
+  potassium_before_insulin: 'interpretation',
+  pf_adjusted_for_altitude: 'oxygenation',
+  low_inspired_po2: 'oxygenation',
   po2_above_alveolar: 'oxygenation',
   oxygenation_not_assessable: 'oxygenation',
   venous_sample: 'oxygenation',
@@ -245,6 +307,9 @@ const IN_TEXT: ReadonlySet<FlagCode> = new Set<FlagCode>([
   'baseline_estimated',
   'osmolar_gap_raised',
   'lactate_raised',
+  'ketoacidosis_pattern',
+  'hyperosmolar_state',
+  'pf_adjusted_for_altitude',
   'oxygenation_not_assessable',
   'venous_sample',
   'capillary_sample',

@@ -46,8 +46,10 @@ export interface Formatter {
   /** P/F ratio, in the pressure unit (a ratio of PaO2 to a fraction) */
   pfRatio(mmHg: Maybe): Text;
   ph(value: Maybe): Text;
+  /** a patient's concentration, always with the same decimals (1 unless stated) */
   mmol(value: Maybe, decimals?: number): Text;
   mmolBand(band: Band | null | undefined): Text;
+  /** an osmolality or osmolar gap, 1 decimal */
   mosm(value: Maybe): Text;
   /** a value of the table of fields, in the clinician's unit with the decimals the table gives */
   field(path: FieldPath, value: Maybe): Text;
@@ -97,9 +99,11 @@ export function formatter(units: U.Units): Formatter {
         : null,
     pfRatio: (mmHg) => pressure(mmHg),
     ph: (value) => numberText(value, 2, true),
-    mmol: (value, decimals = 1) => withUnit(numberText(value, decimals), 'mmol/L'),
-    mmolBand: (b) => band(b, (x) => numberText(x, 1), 'mmol/L'),
-    mosm: (value) => withUnit(numberText(value, 1), 'mOsm/kg'),
+    // one format per kind of figure: concentrations and osmolalities always with the same decimals, trailing zeros
+    // kept ("24.0 mmol/L" beside "23.5 mmol/L"); limits and thresholds go through withUnit and stay short
+    mmol: (value, decimals = 1) => withUnit(numberText(value, decimals, true), 'mmol/L'),
+    mmolBand: (b) => band(b, (x) => numberText(x, 1, true), 'mmol/L'),
+    mosm: (value) => withUnit(numberText(value, 1, true), 'mOsm/kg'),
     field,
     plain: (value, decimals) => numberText(value, decimals),
     fixed: (value, decimals) => numberText(value, decimals, true),

@@ -30,7 +30,7 @@ export function venousView({ f, fmt, withheld }: Ctx) {
             : null,
           agreement: {
             ph: fmt.fixed(VENOUS_AGREEMENT.ph, 2),
-            hco3: fmt.mmol(VENOUS_AGREEMENT.hco3),
+            hco3: fmt.withUnit(VENOUS_AGREEMENT.hco3, 1, 'mmol/L'),
             pco2: fmt.pressureBand({
               low: VENOUS_AGREEMENT.pco2Low,
               high: VENOUS_AGREEMENT.pco2High,
@@ -69,6 +69,8 @@ export function oxygenationView({ f, fmt, withheld }: Ctx) {
     lowInspired: o.lowInspiredOrHypoventilation,
     aaImpossible: f.flags.some((x) => x.code === 'po2_above_alveolar'),
     pf: fmt.pfRatio(d.pfRatio),
+    // below sea-level pressure: the ratio the Berlin bands are judged on (clinical-scope section 10)
+    pfAdjusted: fmt.pfRatio(d.pfRatioAdjusted),
     pfBand: o.pfBand,
     pfBandApplies: o.pfBandApplies,
     pfLimits: {

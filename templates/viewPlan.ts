@@ -19,16 +19,23 @@ export function planView(
   const arterial = c.sample === 'arterial';
   const metabolicAcidosis = hasDisorder('metabolic_acidosis');
   const raisedGap = hasDisorder('metabolic_acidosis', 'high_anion_gap');
+  const glucose = m.glucose;
+  const ketoacidosis = glucose?.ketoacidosisPattern === true;
   const raisedGapTests: string[] = [];
   if (raisedGap) {
     if (!has(g.lactate)) raisedGapTests.push('lactate');
-    raisedGapTests.push('ketones');
+    // the ketoacidosis pattern asks for ketones in its own bullet
+    if (!ketoacidosis) raisedGapTests.push('ketones');
     if (!has(ch.glucose)) raisedGapTests.push('glucose');
     if (!has(ch.creatinine) || !has(ch.urea)) raisedGapTests.push('renal');
     if (!has(ch.osmolality)) raisedGapTests.push('osmolality');
     raisedGapTests.push('toxicology');
   }
   const normalGap = hasDisorder('metabolic_acidosis', 'normal_anion_gap');
+  const u = c.urine;
+  const hypoventilation = f.flags
+    .filter((x) => x.code === 'relative_hypoventilation')
+    .map((x) => x.values.reason as string);
   const alkalosis = hasDisorder('metabolic_alkalosis');
   const respiratoryAcidosis = hasDisorder('respiratory_acidosis');
   const inconsistent = f.consistency !== null && !f.consistency.consistent;
@@ -62,18 +69,34 @@ export function planView(
     raisedGapTests,
     toxicAlcohols:
       m.osmolarGapRaised === true
-        ? ('raised' as const)
+        ? raisedGap
+          ? ('raised_with_gap' as const)
+          : ('raised' as const)
         : raisedGap
           ? ('conditional' as const)
           : null,
+    ethanolMeasured: has(ch.ethanol),
+    ketoacidosis,
+    hyperosmolar: glucose?.hyperosmolar === true,
+    // a "normal" PaCO2 that is not normal for this patient: escalate (clinical-scope section 10)
+    relativeHypoventilation: {
+      any: hypoventilation.length > 0,
+      metabolic: hypoventilation.includes('metabolic_acidosis'),
+      pregnancy: hypoventilation.includes('pregnancy'),
+      asthma: hypoventilation.includes('asthma'),
+    },
     normalGap,
-    urineAnionGap: normalGap && !has(d.urineAnionGap),
+    // the urine anion gap is read in a normal-AG acidosis with no raised-AG one beside it
+    urineAnionGap: normalGap && !raisedGap && !(has(u.na) && has(u.k) && has(u.cl)),
     alkalosis,
     urineChloride: alkalosis && !has(c.urine.cl),
     potassium: alkalosis && !has(ch.k),
     lactate: m.lactateBand === 'raised' || m.lactateBand === 'high',
-    hypoventilation: respiratoryAcidosis && !fw && f.phStatus === 'acidaemia',
-    oxygen: arterial && o.level === 'respiratory_failure',
+    // the escalation bullet of a relative hypoventilation already says this, more urgently
+    hypoventilation:
+      respiratoryAcidosis && !fw && f.phStatus === 'acidaemia' && hypoventilation.length === 0,
+    // at altitude with a normal A-a gradient the low PaO2 is the low inspired PO2 (clinical-scope section 10)
+    oxygen: arterial && o.level === 'respiratory_failure' && !o.lowInspiredPo2,
     arterialGas: c.sample !== 'arterial' && !withheld && !(vn?.hypercapniaUnlikely ?? false),
     verify: inconsistent,
     targetConcern: f.flags.some((x) => x.code === 'target_pco2_above_compensation')

@@ -1,8 +1,8 @@
 // Expected compensation, the reference point and the naming of processes (calc/compensation.ts).
 import { describe, expect, it } from 'vitest';
-import { acidBase, classification, compensation, referencePoints } from '../../calc/index.ts';
+import { classification, compensation, referencePoints } from '../../calc/index.ts';
 
-const { baselineFromUsualPh, referencePoint } = referencePoints;
+const { referencePoint, usualOnChronicLine, usualPco2FromUsualPh } = referencePoints;
 const { classify, phStatus } = classification;
 const {
   expectedHco3,
@@ -11,7 +11,6 @@ const {
   respiratoryAlkalosisHco3,
   wintersPco2,
 } = compensation;
-const { hydrogenIon } = acidBase;
 
 describe("Winters' formula: expected PaCO2 = 1.5 x HCO3 + 8 +/- 2 (Albert, Dell, Winters 1967)", () => {
   it.each([
@@ -177,33 +176,54 @@ describe('the reference point (clinical-scope section 4)', () => {
     expect(r.estimated).toEqual(estimated);
   });
 
-  it('a usual pH alone: the current HCO3 less the acute buffering since baseline is the chronic part (Henderson + Berend 2014 acute rule)', () => {
-    // usual pH 7.38 ([H+] 41.69), now PaCO2 85, HCO3 36.3. By hand: usual HCO3 = (36.3 - 0.1 x 85) / (1 - 0.1 x 41.69 / 24)
-    // = 27.8 / 0.8263 = 33.64; usual PaCO2 = 41.69 x 33.64 / 24 = 58.44. Check: 33.64 + 0.1 x (85 - 58.44) = 36.30.
-    const usual = baselineFromUsualPh(7.38, 85, 36.3);
-    expect(usual.hco3).toBeCloseTo(33.64, 1);
-    expect(usual.pco2).toBeCloseTo(58.44, 1);
-    expect(usual.hco3 + 0.1 * (85 - usual.pco2)).toBeCloseTo(36.3, 9);
-    expect(9 - Math.log10((24 * usual.pco2) / usual.hco3)).toBeCloseTo(7.38, 9);
-    const r = referencePoint({ ph: 7.38 }, false, 36.3, 85);
+  it("a usual pH alone: today's HCO3 is the chronic part, usual PaCO2 = [H+]usual x HCO3 / 24 (Henderson; clinical-scope section 10)", () => {
+    // usual pH 7.38 ([H+] 10^1.62 = 41.69), now PaCO2 85 with HCO3 36.3. By hand: 41.69 x 36.3 / 24 = 63.05 mmHg.
+    // (Taking acute buffering out of the HCO3 first would give 58.4: the fault this replaces.)
+    expect(usualPco2FromUsualPh(7.38, 36.3)).toBeCloseTo(63.05, 2);
+    const r = referencePoint({ ph: 7.38 }, false, 36.3);
     expect(r).toMatchObject({
       kind: 'baseline',
-      estimated: { pco2: true, hco3: true },
+      hco3: 36.3,
+      estimated: { pco2: true, hco3: false },
       usualPhIgnored: false,
+      usual: { source: 'usual_ph', hco3: 36.3, estimated: { pco2: true, hco3: false } },
     });
-    expect(r.pco2).toBeCloseTo(58.44, 1);
+    expect(r.pco2).toBeCloseTo(63.05, 2);
+    expect(9 - Math.log10((24 * r.pco2) / r.hco3)).toBeCloseTo(7.38, 9);
   });
 
-  it('a usual pH alone with a PaCO2 now below the usual one uses the acute alkalosis buffering, 2 per 10 (Berend 2014)', () => {
-    // usual pH 7.40 with chronic HCO3 30 means usual PaCO2 = 39.81 x 30 / 24 = 49.8; hyperventilated to 35 the HCO3
-    // falls 0.2 x 14.76 = 2.95 to 27.05. Working back from 35 / 27.05 must give 49.8 / 30.
-    const usual = baselineFromUsualPh(7.4, 35, 27.048);
-    expect(usual.pco2).toBeCloseTo((hydrogenIon(7.4) * 30) / 24, 1);
-    expect(usual.hco3).toBeCloseTo(30, 1);
+  it('a usual pH alone is not used when a raised-AG acidosis has lowered the HCO3 (clinical-scope section 10)', () => {
+    expect(referencePoint({ ph: 7.38 }, false, 27, true)).toMatchObject({
+      kind: 'textbook',
+      usualPhIgnored: true,
+      usual: null,
+    });
+  });
+
+  it.each([
+    // PaCO2, HCO3, usual PaCO2, usual HCO3: by hand from HCO3 = 24 + 0.35 (P0 - 40) + 0.1 (PaCO2 - P0) (Berend 2014
+    // acidosis rates; clinical-scope section 10), i.e. P0 = (HCO3 - 10 - 0.1 PaCO2) / 0.25
+    [80, 33, 60, 31, 'between the rules: usual 60 / 31, then an acute rise of 20 adds 2'],
+    [60, 31, 60, 31, 'on the chronic line: the usual point is today'],
+    [75, 36, 74, 35.9, 'a touch below the chronic line: (36 - 10 - 7.5) / 0.25 = 74'],
+    [60, 26, 40, 24, 'on the acute line: no chronic part, the usual point is textbook'],
+  ])('PaCO2 %s, HCO3 %s: usual point on the chronic line %s / %s (%s)', (pco2, hco3, p0, h0) => {
+    const u = usualOnChronicLine(pco2, hco3, { pco2: 40, hco3: 24 });
+    expect(u.pco2).toBeCloseTo(p0, 6);
+    expect(u.hco3).toBeCloseTo(h0, 6);
+    // and the acute rule from it reaches today's HCO3 (Berend 2014 acute rule, 1 per 10 mmHg)
+    expect(u.hco3 + 0.1 * (pco2 - u.pco2)).toBeCloseTo(Math.min(hco3, 24 + 0.35 * (pco2 - 40)), 6);
+  });
+
+  it('the chronic-line point for a hypocapnia: 4.5 and 2 per 10 mmHg (Berend 2014), P0 = (HCO3 - 6 - 0.2 PaCO2) / 0.25', () => {
+    // PaCO2 25, HCO3 18: P0 = (18 - 6 - 5) / 0.25 = 28, usual HCO3 = 24 - 0.45 x 12 = 18.6; acute fall 0.2 x 3 = 0.6
+    const u = usualOnChronicLine(25, 18, { pco2: 40, hco3: 24 });
+    expect(u.pco2).toBeCloseTo(28, 6);
+    expect(u.hco3).toBeCloseTo(18.6, 6);
   });
 
   it('a usual pH alone is not used when the current HCO3 is low: that HCO3 has itself moved (a metabolic change)', () => {
-    expect(referencePoint({ ph: 7.4 }, false, 6.7, 22)).toMatchObject({
+    expect(referencePoint({ ph: 7.4 }, false, 6.7)).toMatchObject({
       kind: 'textbook',
       pco2: 40,
       hco3: 24,

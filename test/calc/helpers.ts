@@ -5,6 +5,7 @@ import fc from 'fast-check';
 import { expect } from 'vitest';
 import { interpret, type CaseInput, type Findings, type Rejected } from '../../calc/index.ts';
 import {
+  CONDITIONS,
   fieldsOf,
   keyOf,
   units as U,
@@ -233,8 +234,9 @@ export const anyCase: fc.Arbitrary<CaseInput> = fc.constantFrom(SI, CONVENTIONAL
               },
               { requiredKeys: [] },
             ),
+            maybe(fc.subarray([...CONDITIONS])),
           )
-          .map(([ctx, timing, baseline]) => ({ ...ctx, timing, baseline })),
+          .map(([ctx, timing, baseline, conditions]) => ({ ...ctx, timing, baseline, conditions })),
         oxygen: fc
           .tuple(groupOf(OXYGEN_RANGES, units), maybe(fio2))
           .map(([o, f]) => ({ ...o, fio2: f })),

@@ -192,8 +192,9 @@ describe('mixed and triple disorders', () => {
 
 describe('delta ratio bands (Wrenn 1990): one gas, pH 7.29, PaCO2 28, HCO3 13, with Na 138 and the chloride varied', () => {
   it.each([
-    // Cl, AG, delta ratio (AG - 12) / 11, band, disorders
-    [115, 10, -0.18, 'normal_gap', [['metabolic_acidosis', 'normal_anion_gap']], 'diarrhoea'],
+    // Cl, AG, delta ratio (AG - 12) / 11, band, disorders; a gap that is not raised gives no ratio (clinical-scope
+    // section 10: the ratio means something only with a raised gap)
+    [115, 10, null, null, [['metabolic_acidosis', 'normal_anion_gap']], 'diarrhoea'],
     [
       107,
       18,
@@ -231,11 +232,20 @@ describe('delta ratio bands (Wrenn 1990): one gas, pH 7.29, PaCO2 28, HCO3 13, w
   it('the corrected gap is used when albumin is known, and it says so (Figge 1998; clinical-scope section 5)', () => {
     const f = read({
       gas: { ph: 7.29, pco2: 28, hco3: 13 },
-      chemistry: { na: 138, cl: 115, albumin: 1.6 },
+      chemistry: { na: 138, cl: 112, albumin: 1.6 },
     });
-    expect(f.derived.anionGapCorrected).toBe(16); // 10 + 2.5 x 2.4
+    expect(f.derived.anionGap).toBe(13); // 138 - (112 + 13): not raised uncorrected
+    expect(f.derived.anionGapCorrected).toBe(19); // 13 + 2.5 x 2.4
     expect(f.metabolic.anionGapUsed).toBe('corrected');
-    expect(f.derived.deltaRatio).toBe(0.36); // (16 - 12) / 11
+    expect(f.derived.deltaRatio).toBe(0.64); // (19 - 12) / 11 (Wrenn 1990)
+    expect(f.explain.deltaRatio?.inputs.map((i) => i.name)).toContain('AGc');
+  });
+
+  it('an uncorrected gap within the limit gives no delta ratio, whatever the HCO3 (clinical-scope section 10)', () => {
+    const f = read({ gas: { ph: 7.29, pco2: 28, hco3: 13 }, chemistry: { na: 138, cl: 115 } });
+    expect(f.metabolic.anionGapRaised).toBe(false);
+    expect(f.derived.deltaRatio).toBeNull();
+    expect(f.metabolic.delta).toBeNull();
   });
 
   it('a laboratory reference of 7 +/- 4 (modern analysers 3-11, Kraut and Madias 2007) makes a gap of 13 raised', () => {
@@ -314,17 +324,18 @@ describe('a stated or estimated baseline (clinical-scope section 4)', () => {
     expect(f.compensation?.fit).toBe('between');
   });
 
-  it('COPD with only a usual pH of 7.38: the usual PaCO2 is estimated, about 58, and flagged as an estimate', () => {
-    // pH 7.25, PaCO2 85, HCO3 worked out 24 x 85 / 56.23 = 36.3. Usual HCO3 = (36.3 - 8.5) / (1 - 0.1 x 41.69 / 24) = 33.6,
-    // usual PaCO2 = 41.69 x 33.6 / 24 = 58.4 (Henderson with the Berend 2014 acute rule)
+  it('COPD with only a usual pH of 7.38: the usual PaCO2 is estimated, about 63, and flagged as an estimate', () => {
+    // pH 7.25, PaCO2 85, HCO3 worked out 24 x 85 / 56.23 = 36.3, which is the chronic part (clinical-scope section 10):
+    // usual PaCO2 = 41.69 x 36.3 / 24 = 63.0 (Henderson)
     const f = read({ gas: { ph: 7.25, pco2: 85 }, context: { baseline: { ph: 7.38 } } });
-    expectNear(f.reference.pco2, 58.4, 0.1);
-    expectNear(f.reference.hco3, 33.6, 0.1);
-    expect(f.reference.estimated).toEqual({ pco2: true, hco3: true });
+    expectNear(f.reference.pco2, 63.0, 0.1);
+    expectNear(f.reference.hco3, 36.3, 0.1);
+    expect(f.reference.estimated).toEqual({ pco2: true, hco3: false });
     expect(f.flags.find((x) => x.code === 'baseline_estimated')?.values).toMatchObject({
-      pco2: 58.4,
-      hco3: 33.6,
+      pco2: 63,
+      hco3: 36.3,
       pco2Estimated: true,
+      source: 'usual_ph',
     });
     // only the acute-on-chronic respiratory acidosis: no metabolic process made up from the estimate itself
     expect(disorderList(f)).toEqual([['respiratory_acidosis', 'acute_on_chronic']]);

@@ -255,7 +255,7 @@ describe('a target below what the patient needs (clinical-scope section 8)', () 
     expect(f.ventilation?.usualPco2).toBe(60);
   });
 
-  it('without a stated baseline the usual PaCO2 is estimated from the chronic HCO3: 40 + 12 x 10 / 3.5 = 74.3 (Berend 2014 inverted)', () => {
+  it('without a stated baseline the usual PaCO2 is the point on the chronic line from which an acute change reaches today: (36 - 10 - 7.5) / 0.25 = 74 (clinical-scope section 10)', () => {
     const f = read({
       gas: { ph: 7.3, pco2: 75, hco3: 36 },
       context: { timing: 'chronic' },
@@ -264,7 +264,7 @@ describe('a target below what the patient needs (clinical-scope section 8)', () 
     });
     expect(f.flags.find((x) => x.code === 'target_pco2_below_baseline')?.values).toEqual({
       target: 56.7,
-      usual: 74.3,
+      usual: 74,
       estimated: true,
     });
   });

@@ -263,3 +263,23 @@ describe('a rejected case computes nothing', () => {
     expect(f.ventilation).toBeNull();
   });
 });
+
+describe('known conditions (interface contract: context.conditions)', () => {
+  it('the contract list is accepted, each once, and carried in the case', () => {
+    const f = read({ gas, context: { conditions: ['copd', 'asthma', 'copd', 'diabetes'] } });
+    expect(f.case.context.conditions).toEqual(['copd', 'asthma', 'diabetes']);
+    expect(read({ gas }).case.context.conditions).toEqual([]);
+  });
+
+  it.each([
+    [
+      { conditions: ['asthma', 'gout'] },
+      'context.conditions.1',
+      /Condition must be one of: .*asthma/,
+    ],
+    [{ conditions: 'asthma' }, 'context.conditions', /must be a list/],
+  ])('%j is rejected at %s', (context, path, message) => {
+    const e = reject({ gas, context }).errors.find((x) => x.path === path);
+    expect(e?.message).toMatch(message);
+  });
+});

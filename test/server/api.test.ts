@@ -199,6 +199,76 @@ describe('POST /api/interpret: each sample and disorder through the wire', () =>
   });
 });
 
+describe('POST /api/interpret: reference (interface contract)', () => {
+  const reference = async (body: unknown) => (await (await post(body)).json()).reference;
+
+  it('has the contract shape for the full ventilated case: pco2, hco3, kind, estimated (canonical units)', async () => {
+    const r = await reference(ventilatedMmHg);
+    expect(r).toMatchObject({
+      pco2: 40,
+      hco3: 24,
+      kind: 'textbook',
+      estimated: { pco2: false, hco3: false },
+    });
+    expect(typeof r.pco2).toBe('number');
+  });
+
+  it.each([
+    // the point the reading is judged against (clinical-scope sections 4 and 10)
+    ['textbook', { gas: { ph: 7.4, pco2: 40, hco3: 24 } }, 40, 24, 'textbook', false, false],
+    [
+      'pregnancy: 28-32 and 18-22 (textbook common practice)',
+      { gas: { ph: 7.44, pco2: 30, hco3: 20 }, patient: { sex: 'female', pregnant: true } },
+      30,
+      20,
+      'pregnancy',
+      false,
+      false,
+    ],
+    [
+      'a stated usual PaCO2 and HCO3',
+      { gas: { ph: 7.25, pco2: 80, hco3: 34 }, context: { baseline: { pco2: 60, hco3: 32 } } },
+      60,
+      32,
+      'baseline',
+      false,
+      false,
+    ],
+    [
+      "a usual pH alone: 10^(9 - 7.38) x 36.3 / 24 = 63.05, reported 63.1 (Henderson, today's HCO3 the chronic part)",
+      { gas: { ph: 7.25, pco2: 85, hco3: 36.3 }, context: { baseline: { ph: 7.38 } } },
+      63.1,
+      36.3,
+      'baseline',
+      true,
+      false,
+    ],
+  ])('%s', async (_name, body, pco2, hco3, kind, pco2Estimated, hco3Estimated) => {
+    const r = await reference(body);
+    expect(r).toMatchObject({ kind, estimated: { pco2: pco2Estimated, hco3: hco3Estimated } });
+    expect(r.pco2).toBeCloseTo(pco2, 1);
+    expect(r.hco3).toBeCloseTo(hco3, 1);
+  });
+
+  it('in kPa the reference is still in mmHg (canonical units): usual 8.0 kPa = 60.0 mmHg (SI)', async () => {
+    const r = await reference({
+      units: { pressure: 'kPa' },
+      gas: { ph: 7.25, pco2: 80 / MMHG_PER_KPA, hco3: 34 },
+      context: { baseline: { pco2: 60 / MMHG_PER_KPA, hco3: 32 } },
+    });
+    expect(r.pco2).toBe(60);
+  });
+
+  it('without usual values, the usual point estimated on the chronic line is given beside the reference', async () => {
+    const r = await reference({ gas: { ph: 7.24, pco2: 80, hco3: 33 } });
+    // (33 - 10 - 0.1 x 80) / 0.25 = 60; 24 + 0.35 x 20 = 31 (Berend 2014 rates, clinical-scope section 10)
+    expect(r).toMatchObject({
+      kind: 'textbook',
+      usual: { pco2: 60, hco3: 31, source: 'chronic_line', estimated: { pco2: true, hco3: true } },
+    });
+  });
+});
+
 describe('POST /api/interpret: errors', () => {
   it('422 names the path, the value and the range', async () => {
     const res = await post({ gas: { ph: 9.1, pco2: 40, hco3: 24 } });
@@ -233,6 +303,11 @@ describe('POST /api/interpret: errors', () => {
       'a nested previous gas',
       { gas: { ph: 7.3, pco2: 40, hco3: 24 }, previous: [{ gas: { ph: 5, pco2: 40 } }] },
       'previous.0.gas.ph',
+    ],
+    [
+      'a condition not in the contract list',
+      { gas: { ph: 7.3, pco2: 40, hco3: 24 }, context: { conditions: ['asthma', 'gout'] } },
+      'context.conditions.1',
     ],
     [
       'FiO2 between fraction and percent',

@@ -58,6 +58,23 @@ const SAMPLE_VALUES: Record<FlagCode, Flag['values']> = {
   suggestion_from_venous_pco2: { sample: 'venous' },
   osmolar_gap_raised: { osmolarGap: 24.5 },
   lactate_raised: { lactate: 5.1, band: 'high' },
+  relative_hypoventilation: { reason: 'asthma', pco2: 42, limit: 35 },
+  ketoacidosis_pattern: { glucose: 34, knownDiabetes: true },
+  hyperosmolar_state: { effectiveOsmolality: 348, glucose: 52 },
+  potassium_before_insulin: { k: 3.1, status: 'low' },
+  pf_adjusted_for_altitude: {
+    pfRatio: 220,
+    pfRatioAdjusted: 164,
+    barometricPressure: 565,
+    band: 'moderate',
+    bandApplies: true,
+  },
+  low_inspired_po2: {
+    barometricPressure: 487,
+    altitudeM: 3600,
+    alveolarPo2: 57.4,
+    aaGradient: 5.4,
+  },
 };
 
 describe('flag codes', () => {
