@@ -6,6 +6,8 @@ import type { Findings } from '../calc/index.ts';
 import {
   acidBase,
   compensation,
+  gasTime,
+  inTimeOrder,
   reference,
   units,
   type Band,
@@ -283,30 +285,19 @@ export interface PlottedGas {
 
 const DATE_TIME = /^(\d{4})-(\d{2})-(\d{2})(?:[T ](\d{2}):(\d{2})(?::(\d{2}))?)?/;
 
-/** A sortable key for an ISO-like date and time, or null when takenAt is not one. */
-export function takenAtKey(takenAt: string | null): string | null {
-  const m = takenAt === null ? null : DATE_TIME.exec(takenAt.trim());
-  if (!m) return null;
-  return `${m[1]}${m[2]}${m[3]}${m[4] ?? '00'}${m[5] ?? '00'}${m[6] ?? '00'}`;
-}
-
 /**
- * Earlier gases in takenAt order when every one has a date (and time), else in the order entered;
- * then the current gas.
+ * Earlier gases in time order (calc's inTimeOrder, the order the note reads them in) when every one has a date
+ * and time, else in the order entered; then the current gas.
  */
 export function gasesInTimeOrder(findings: Findings): { gases: PlottedGas[]; byTakenAt: boolean } {
-  const earlier = findings.previous.map((p, index) => ({ p, index, key: takenAtKey(p.takenAt) }));
-  const byTakenAt = earlier.length > 0 && earlier.every((e) => e.key !== null);
-  if (byTakenAt)
-    earlier.sort((a, b) =>
-      a.key === b.key ? a.index - b.index : (a.key as string) < (b.key as string) ? -1 : 1,
-    );
-  const gases: PlottedGas[] = earlier.map((e, i) => ({
+  const earlier = inTimeOrder(findings.previous);
+  const byTakenAt = earlier.length > 0 && earlier.every((p) => gasTime(p.takenAt) !== null);
+  const gases: PlottedGas[] = earlier.map((p, i) => ({
     number: i + 1,
     current: false,
-    takenAt: e.p.takenAt,
-    label: e.p.label,
-    gas: e.p.gas,
+    takenAt: p.takenAt,
+    label: p.label,
+    gas: p.gas,
   }));
   gases.push({
     number: gases.length + 1,
@@ -318,6 +309,7 @@ export function gasesInTimeOrder(findings: Findings): { gases: PlottedGas[]; byT
   return { gases, byTakenAt };
 }
 
+const DAY_MS = 86_400_000;
 const MONTHS = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'];
 
 /** takenAt for people: "04:10" when all dated gases share a day (short form), else "2 Mar 2026 04:10". */
@@ -569,10 +561,11 @@ export function acidBaseMap(findings: Findings, options: MapOptions = {}): MapRe
   const f = L.frame;
   const id = (s: string) => `${o.idPrefix}-${s}`;
 
-  const dated = plotted.filter((g) => takenAtKey(g.takenAt) !== null);
-  const oneDay =
-    dated.length > 0 &&
-    new Set(dated.map((g) => (takenAtKey(g.takenAt) as string).slice(0, 8))).size === 1;
+  const days = plotted.flatMap((g) => {
+    const time = gasTime(g.takenAt);
+    return time === null ? [] : [Math.floor(time / DAY_MS)];
+  });
+  const oneDay = days.length > 0 && new Set(days).size === 1;
   const placed: Placed[] = plotted.map((g) => {
     const clamped = clampToWindow({ ph: g.gas.ph, hco3: g.gas.hco3 });
     return {
