@@ -52,7 +52,7 @@ function arrowsOf(files: string[]): Arrow[] {
   );
 }
 
-const inRoom = (path: string | null, room: string) => path !== null && path.startsWith(`${room}/`);
+const inRoom = (path: string | null, room: string) => !!path?.startsWith(`${room}/`);
 const show = (a: Arrow) => `${a.from} -> ${a.specifier}`;
 
 /** The arrows that break the rules every room follows. */
