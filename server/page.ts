@@ -20,7 +20,8 @@ import {
 } from '../views/flow.ts';
 import { cancelFollowUp, startFollowUp } from '../views/followUp.ts';
 import { intakeOf, withChosenSample, type RawIntake } from '../views/intake.ts';
-import { confirmPaste, fingerprint, pasteView } from '../views/paste.ts';
+import { fingerprint, pasteView } from '../views/paste.ts';
+import { confirmPaste } from '../views/pasteConfirm.ts';
 import { caseFromFhir, parsePaste, MAX_PASTE_CHARS } from './intake/index.ts';
 import {
   flowView,
