@@ -247,12 +247,24 @@ export const FIELDS = [
       L('1994-3', 'blood', 'Calcium.ionized [Moles/volume] in Blood'), // checked: HL7 PDDI CDS calcium value set
       L('1995-0', 'serum', 'Calcium.ionized [Moles/volume] in Serum or Plasma'), // checked: HL7 PDDI CDS calcium value set
     ],
-    printed: [P('c?Ca(?:2\\+|\\+\\+)|iCa|ionised\\s+calcium|ionized\\s+calcium', { anyCase: true })],
+    printed: [
+      P('c?Ca(?:2\\+|\\+\\+)|iCa|ioni[sz]ed\\s+ca(?:lcium)?|ca(?:lcium)?,?\\s+ioni[sz]ed|ca(?:lcium)?\\s*\\(\\s*ioni[sz]ed\\s*\\)', { anyCase: true }),
+    ],
   },
-  // common practice
-  { path: 'chemistry.magnesium', label: 'Magnesium', unit: 'mmol/L', range: [0.1, 5], decimals: 2, charge: 2, ucum: MMOL },
-  // common practice; phosphate is a mix of valences, so mEq/L is not taken
-  { path: 'chemistry.phosphate', label: 'Phosphate', unit: 'mmol/L', range: [0.1, 6], decimals: 2, ucum: MMOL },
+  {
+    // common practice
+    path: 'chemistry.magnesium', label: 'Magnesium', unit: 'mmol/L', range: [0.1, 5], decimals: 2, charge: 2, ucum: MMOL,
+    // "Mg" as written, never before a slash (mg/dL is a unit)
+    printed: [P('c?Mg(?:2\\+|\\+\\+)?(?!\\s*\\/)'), P('magnesium', { anyCase: true })],
+    loinc: [L('2601-3', 'serum', 'Magnesium [Moles/volume] in Serum or Plasma')], // checked: HL7 PDDI CDS magnesium value set
+  },
+  {
+    // common practice; phosphate is a mix of valences, so mEq/L is not taken
+    path: 'chemistry.phosphate', label: 'Phosphate', unit: 'mmol/L', range: [0.1, 6], decimals: 2, ucum: MMOL,
+    printed: [P('PO4|phos(?:phate)?|phosphorus|inorganic\\s+phosph(?:ate|orus)', { anyCase: true })],
+    // checked: a published national LOINC code list and a laboratory-to-LOINC mapping (no HL7 value set found)
+    loinc: [L('14879-1', 'serum', 'Phosphate [Moles/volume] in Serum or Plasma')],
+  },
   // ---------- urine (common practice) ----------
   { path: 'urine.na', label: 'Urine Na', unit: 'mmol/L', range: [0, 300], decimals: 0, charge: 1, ucum: MMOL },
   { path: 'urine.k', label: 'Urine K', unit: 'mmol/L', range: [0, 250], decimals: 0, charge: 1, ucum: MMOL },
@@ -278,9 +290,16 @@ export const FIELDS = [
     // a fraction 0.21-1.00, or a percent 21-100 (clinical-scope section 1)
     path: 'oxygen.fio2', label: 'FiO2', unit: '', range: [0.21, 1], decimals: 2, ucum: ['%', '1'], step: 'oxygen',
     printed: [P('F\\s?[iI]\\s?O2|FO2\\s?\\(\\s*I\\s*\\)')],
-    loinc: [L('3150-0', 'none', 'Inhaled oxygen concentration')], // checked: GECCO FiO2 profile
+    loinc: [
+      L('3150-0', 'none', 'Inhaled oxygen concentration'), // checked: GECCO FiO2 profile
+      L('19994-3', 'none', 'Oxygen/Total gas setting [Volume Fraction] Ventilator'), // checked: HL7 SANER ventilator observations value set
+    ],
   },
-  { path: 'oxygen.peep', label: 'PEEP', ask: 'PEEP or CPAP', unit: 'cmH2O', range: [0, 30], decimals: 0, step: 'oxygen' },
+  {
+    path: 'oxygen.peep', label: 'PEEP', ask: 'PEEP or CPAP', unit: 'cmH2O', range: [0, 30], decimals: 0, ucum: ['cm[H2O]'],
+    step: 'oxygen',
+    loinc: [L('20077-4', 'none', 'Positive end expiratory pressure setting Ventilator')], // checked: HL7 SANER ventilator observations value set
+  },
   {
     // common practice; a percent
     path: 'oxygen.spo2', label: 'SpO2', unit: '%', range: [30, 100], decimals: 0, percent: true, ucum: PERCENT,

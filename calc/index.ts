@@ -25,6 +25,7 @@ export {
   rangeErrors,
   rangeText,
   toFieldErrors,
+  withoutInvisible,
 } from './schema.ts';
 export type { CaseInput, FieldError, ParsedCase, SafeParse } from './schema.ts';
 export {
@@ -42,24 +43,26 @@ export { readUnit, resolveUnits } from './units.ts';
 export type { PressureUnit, Quantity, UnitDef, UnitReading, Units } from './units.ts';
 export { gasTime, inTimeOrder } from './readSerial.ts';
 export type { Flag, FlagCode, FlagValue, Severity } from './flags.ts';
+export type { Band, Timing } from './compensation.ts';
 export type {
-  Band,
+  Classification,
   Compensation,
   Disorder,
   DisorderBasis,
   DisorderCode,
   DisorderDetail,
   PhStatus,
-  ReferencePoint,
-  Timing,
-} from './compensation.ts';
+} from './classify.ts';
+export type { ReferencePoint } from './referencePoint.ts';
 export type { Explanation, How, Input } from './explain.ts';
 export { round } from './explain.ts';
 export { SOURCES, type SourceKey } from './sources.ts';
 // the formulas, one namespace per physiological idea
 export * as acidBase from './acidBase.ts';
 export * as anionGap from './anionGap.ts';
+export * as classification from './classify.ts';
 export * as compensation from './compensation.ts';
+export * as referencePoints from './referencePoint.ts';
 export * as osmolality from './osmolality.ts';
 export * as oxygenation from './oxygenation.ts';
 export * as physicochemical from './physicochemical.ts';

@@ -16,14 +16,9 @@ import {
   hydrogenIon,
   type Consistency,
 } from './acidBase.ts';
-import {
-  classify,
-  phStatus,
-  referencePoint,
-  type Band,
-  type Compensation,
-  type ReferencePoint,
-} from './compensation.ts';
+import type { Band } from './compensation.ts';
+import { classify, phStatus, type Compensation } from './classify.ts';
+import { referencePoint, type ReferencePoint } from './referencePoint.ts';
 import { standardBaseExcess } from './physicochemical.ts';
 import { bySeverity, flag, type Flag } from './flags.ts';
 import { explanation, input, record, round, type How, type Input } from './explain.ts';

@@ -4,7 +4,9 @@ import type { CanonicalCase } from './canonical.ts';
 import { FIELD } from './fields.ts';
 import { NORMAL, VENTILATION } from './reference.ts';
 import { hydrogenIon } from './acidBase.ts';
-import { wintersPco2, type Classification, type ReferencePoint } from './compensation.ts';
+import { wintersPco2 } from './compensation.ts';
+import type { Classification } from './classify.ts';
+import type { ReferencePoint } from './referencePoint.ts';
 import {
   alveolarVentilation,
   co2ProductionEstimate,

@@ -29,6 +29,19 @@ const optionalNumber = (label: string) => number(label).nullish();
 type OptionalNumber = ReturnType<typeof optionalNumber>;
 const oneOf = <const T extends readonly [string, ...string[]]>(label: string, values: T) =>
   z.enum(values, { error: () => `${label} must be one of: ${values.join(', ')}` });
+/**
+ * Characters that change how text is displayed without being seen: the bidirectional embeddings, overrides and
+ * isolates (U+202A-202E, U+2066-2069), the directional marks (U+200E, U+200F, U+061C) and the zero-width ones
+ * (U+200B-200D, U+2060, U+FEFF). One right-to-left override makes "PaCO2 48 to 42" display reversed; none belongs
+ * in a clinical note, so free text loses them at the edge.
+ */
+export const INVISIBLE = /[\u202a-\u202e\u2066-\u2069\u200e\u200f\u061c\u200b-\u200d\u2060\ufeff]/g;
+export const withoutInvisible = (text: string): string => text.replace(INVISIBLE, '');
+
+/** Free text of a case (a gas's time or label): the invisible controls above are removed. */
+const freeText = (message: string, max: number, long: string) =>
+  z.string({ error: message }).transform(withoutInvisible).pipe(z.string().max(max, long));
+
 const yesNo = (label: string) => z.boolean({ error: `${label} must be true or false` }).nullish();
 
 /** A group's numbers, one optional number per row of the table. */
@@ -71,11 +84,8 @@ const settingsOf = <P extends (typeof PREVIOUS_SETTINGS)[number]>(g: string, pat
   ).nullish();
 
 const previousSchema = group('previous gas', {
-  takenAt: z
-    .string({ error: 'takenAt must be text (a date and time)' })
-    .max(40, 'takenAt is too long')
-    .nullish(),
-  label: z.string({ error: 'label must be text' }).max(80, 'label is too long').nullish(),
+  takenAt: freeText('takenAt must be text (a date and time)', 40, 'takenAt is too long').nullish(),
+  label: freeText('label must be text', 80, 'label is too long').nullish(),
   gas: gasSchema,
   oxygen: settingsOf('oxygen', PREVIOUS_SETTINGS),
   ventilator: settingsOf('ventilator', PREVIOUS_SETTINGS),

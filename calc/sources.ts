@@ -2,7 +2,7 @@
 export const SOURCES = {
   siPressure: 'SI definition: 1 mmHg = 133.322 Pa, so 1 kPa = 7.50062 mmHg',
   molarMass:
-    'Molar masses: glucose 180.16 g/mol, urea nitrogen (N2) 28.01 g/mol, creatinine 113.12 g/mol (88.4 umol/L per mg/dL), ethanol 46.07 g/mol',
+    'Molar masses from IUPAC standard atomic weights (each conversion factor is given beside its unit in calc/units.ts)',
   hydrogenIon: 'Definition of pH: [H+] nmol/L = 10^(9 - pH)',
   henderson: 'Henderson equation: [H+] = 24 x PaCO2 / HCO3 (nmol/L, mmHg, mmol/L)',
   hendersonHasselbalch: 'Henderson-Hasselbalch: pH = 6.1 + log10(HCO3 / (0.0307 x PaCO2))',

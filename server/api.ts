@@ -69,8 +69,10 @@ const noteFormat = (c: Context): 'text' | 'markdown' =>
 /** What the FHIR reader found, beside the reading: nothing it did not use is dropped silently. */
 const fhirReport = (r: FhirResult) => ({
   read: r.read,
+  takenAt: r.takenAt,
+  previous: r.previous,
+  earlier: r.earlier,
   unused: r.unused,
-  superseded: r.superseded,
   conversions: r.conversions,
   notes: r.notes,
 });

@@ -1,11 +1,12 @@
 // The application: routes wired to calc/, templates/ and views/, with headers, limits and errors.
-import { Hono } from 'hono';
+import { Hono, type Context } from 'hono';
 import { HTTPException } from 'hono/http-exception';
 import { originCheck, securityHeaders } from './security.ts';
 import { apiRoutes } from './api.ts';
 import { pageRoutes } from './page.ts';
 import { jsonError } from './errors.ts';
-import { createNoteRenderer, type NoteRenderer } from '../templates/index.ts';
+import { launch, launchView, type LaunchSettings } from './launch/index.ts';
+import { createNoteRenderer, TemplateError, type NoteRenderer } from '../templates/index.ts';
 import type { InterpretOptions } from '../calc/index.ts';
 
 export interface AppOptions {
@@ -17,6 +18,12 @@ export interface AppOptions {
   allowedOrigins?: string[];
   /** request log sink: method, path, status and time only, never a value from a case */
   log?: (line: string) => void;
+  /** where faults of ours are reported (default stderr): a class and a name, never a value from a case */
+  errorLog?: (line: string) => void;
+  /** SMART App Launch settings (SMART_CLIENT_ID and the rest); null or absent: no launch */
+  launch?: LaunchSettings | null;
+  /** origins of the record allowed to embed the page (FRAME_ANCESTORS); none: no framing */
+  frameAncestors?: string[];
 }
 
 export function createApp(options: AppOptions = {}): Hono {
@@ -35,11 +42,21 @@ export function createApp(options: AppOptions = {}): Hono {
     });
   }
 
-  app.use(securityHeaders());
+  app.use(securityHeaders(options.frameAncestors ?? []));
   app.use(originCheck(options.allowedOrigins ?? []));
 
   app.route('/', apiRoutes({ renderer, interpretOptions: options.interpretOptions }));
-  app.route('/', pageRoutes({ renderer, interpretOptions: options.interpretOptions }));
+  const settings = options.launch ?? null;
+  const launchViewFor = settings ? (c: Context) => launchView(settings, c) : undefined;
+  app.route('/', launch({ settings, renderer, interpretOptions: options.interpretOptions }));
+  app.route(
+    '/',
+    pageRoutes({
+      renderer,
+      interpretOptions: options.interpretOptions,
+      launchView: launchViewFor,
+    }),
+  );
 
   app.notFound((c) => jsonError(c, 404, `No route for ${c.req.method} ${c.req.path}`));
   app.onError((err, c) => {
@@ -55,6 +72,9 @@ export function createApp(options: AppOptions = {}): Hono {
         );
       return jsonError(c, status as 400, err.message || 'Bad request');
     }
+    // a template that fails is named, with its error class, and nothing of the case (a department's folder is code)
+    if (err instanceof TemplateError)
+      (options.errorLog ?? console.error)(`note template error: ${err.kind} in ${err.template}`);
     // a fault of ours, not of the request: say so without echoing anything from it
     return jsonError(c, 500, 'Internal error: the request was not processed');
   });

@@ -1,6 +1,8 @@
 // Start the server: 127.0.0.1:3000 unless PORT and HOST say otherwise.
 import { serve } from '@hono/node-server';
+import cluster from 'node:cluster';
 import { createApp } from './app.ts';
+import { readSettings } from './launch/index.ts';
 
 const LOOPBACK = new Set(['127.0.0.1', 'localhost', '::1']);
 
@@ -16,7 +18,19 @@ export function startServer(env: NodeJS.ProcessEnv = process.env) {
       `WARNING: listening on ${hostname}. Gasline has no login of its own: put it behind the hospital's authentication and reverse proxy.`,
     );
   }
+  // a cluster's workers, or pods under Kubernetes (which sets KUBERNETES_SERVICE_HOST): one shared key is needed
+  const settings = readSettings(env, {
+    severalProcesses: cluster.isWorker || env.KUBERNETES_SERVICE_HOST !== undefined,
+  });
+  if (!settings.ok) {
+    console.error(settings.error);
+    process.exit(2);
+  }
+  if (!cluster.isWorker || cluster.worker?.id === 1)
+    for (const message of settings.messages) console.log(message);
   const app = createApp({
+    launch: settings.launch,
+    frameAncestors: settings.frameAncestors,
     templateDir: env.NOTE_TEMPLATES?.trim() || null,
     allowedOrigins: (env.ALLOWED_ORIGINS ?? '')
       .split(',')

@@ -22,7 +22,13 @@ import { cancelFollowUp, startFollowUp } from '../views/followUp.ts';
 import { intakeOf, withChosenSample, type RawIntake } from '../views/intake.ts';
 import { fingerprint, pasteView } from '../views/paste.ts';
 import { confirmPaste } from '../views/pasteConfirm.ts';
-import { caseFromFhir, parsePaste, MAX_PASTE_CHARS } from './intake/index.ts';
+import {
+  caseFromFhir,
+  parsePaste,
+  MAX_PASTE_CHARS,
+  type FhirResult,
+  type PasteResult,
+} from './intake/index.ts';
 import {
   flowView,
   markdownPreview,
@@ -38,6 +44,8 @@ import type { FormValues } from '../views/paths.ts';
 export interface PageDeps {
   renderer: NoteRenderer;
   interpretOptions?: InterpretOptions;
+  /** the launch from the record, when on: its start link and whether this browser may file the draft back */
+  launchView?: (c: Context) => Presentation['launch'];
 }
 
 const FORM_TYPES = new Set(['application/x-www-form-urlencoded', 'multipart/form-data']);
@@ -48,8 +56,14 @@ const isObject = (x: unknown): x is Record<string, unknown> =>
   x !== null && typeof x === 'object' && !Array.isArray(x);
 const isResource = (x: unknown) => isObject(x) && typeof x.resourceType === 'string';
 
+/** What the intake read, as the server has it: handed to the views, which read it as their RawIntake. */
+export type IntakeRead =
+  | Exclude<RawIntake, { kind: 'paste' | 'fhir' }>
+  | { kind: 'paste'; result: PasteResult }
+  | { kind: 'fhir'; result: FhirResult };
+
 /** Which intake reads the text: JSON with a resourceType goes to the FHIR intake, any other text to the paste intake. */
-export function readIntake(text: string): RawIntake {
+export function readIntake(text: string): IntakeRead {
   if (text.trim() === '') return { kind: 'empty' };
   if (text.length > MAX_PASTE_CHARS)
     return { kind: 'too-long', limit: MAX_PASTE_CHARS, length: text.length };
@@ -102,7 +116,7 @@ export function pageRoutes(deps: PageDeps): Hono {
 
   /** The page for a state, from its reading (made once per request: see views/flow.ts readOf). */
   const send = (c: Context, read: Read, p: Presentation, status: 200 | 422 = 200) => {
-    const view = flowView(read, deps, p);
+    const view = flowView(read, deps, { launch: deps.launchView?.(c), ...p });
     return c.html(isHtmx(c) ? renderFragment(view) : renderPage(view), status, NO_STORE);
   };
 

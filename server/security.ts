@@ -3,8 +3,11 @@ import type { MiddlewareHandler } from 'hono';
 import { secureHeaders } from 'hono/secure-headers';
 import { csrf } from 'hono/csrf';
 
-/** A strict Content-Security-Policy (no inline script or style, no eval), no framing, no referrer, no sniffing. */
-export const securityHeaders = (): MiddlewareHandler =>
+/**
+ * A strict Content-Security-Policy (no inline script or style, no eval), no referrer, no sniffing, and no framing
+ * unless frameAncestors lists the record's origins (FRAME_ANCESTORS) that may embed the page after a launch.
+ */
+export const securityHeaders = (frameAncestors: readonly string[] = []): MiddlewareHandler =>
   secureHeaders({
     contentSecurityPolicy: {
       defaultSrc: ["'self'"],
@@ -14,11 +17,12 @@ export const securityHeaders = (): MiddlewareHandler =>
       connectSrc: ["'self'"],
       fontSrc: ["'self'"],
       formAction: ["'self'"],
-      frameAncestors: ["'none'"],
+      frameAncestors: frameAncestors.length ? [...frameAncestors] : ["'none'"],
       baseUri: ["'none'"],
       objectSrc: ["'none'"],
     },
-    xFrameOptions: 'DENY',
+    // X-Frame-Options cannot name several origins: CSP frame-ancestors alone governs a listed embedding
+    xFrameOptions: frameAncestors.length ? false : 'DENY',
     referrerPolicy: 'no-referrer',
     xContentTypeOptions: 'nosniff',
     crossOriginResourcePolicy: 'same-origin',

@@ -1,15 +1,14 @@
-// npm start: run the compiled server, compiling first when any source is newer than the last build.
-// Compiled JavaScript starts in a fraction of the time a TypeScript loader needs.
-import { execFileSync } from 'node:child_process';
-import { cpSync, existsSync, mkdirSync, readdirSync, statSync, writeFileSync } from 'node:fs';
-import { dirname, join, relative } from 'node:path';
+// npm start: run the compiled server in dist/ (npm run build makes it). Nothing is compiled here, so a
+// read-only tree with production dependencies only starts as it is; a build older than the sources is
+// said once, not rebuilt.
+import { existsSync, readdirSync, statSync } from 'node:fs';
+import { dirname, join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '..');
 const dist = join(root, 'dist');
 const stamp = join(dist, '.built');
 const SOURCES = ['calc', 'server', 'views', 'templates'];
-const ASSET = /\.(njk|css|js|svg|png|ico|txt)$/;
 
 function newest(dir) {
   let latest = 0;
@@ -21,37 +20,17 @@ function newest(dir) {
   return latest;
 }
 
-function copyAssets(dir) {
-  for (const name of readdirSync(dir)) {
-    const path = join(dir, name);
-    if (statSync(path).isDirectory()) copyAssets(path);
-    else if (ASSET.test(name) && !name.endsWith('.mjs')) {
-      const target = join(dist, relative(root, path));
-      mkdirSync(dirname(target), { recursive: true });
-      cpSync(path, target);
-    }
-  }
-}
-
-const sourceTime = Math.max(
-  ...SOURCES.map((d) => newest(join(root, d))),
-  statSync(join(root, 'package-lock.json')).mtimeMs,
-);
-if (!existsSync(stamp) || statSync(stamp).mtimeMs < sourceTime) {
-  const started = performance.now();
-  execFileSync(
-    process.execPath,
-    [
-      join(root, 'node_modules', 'typescript', 'bin', 'tsc'),
-      '-p',
-      join(root, 'tsconfig.build.json'),
-    ],
-    { stdio: 'inherit' },
+if (!existsSync(stamp)) {
+  console.error(
+    'Gasline: no build in dist/: run npm run build (npm install does it too), then npm start',
   );
-  for (const dir of ['templates', 'views']) copyAssets(join(root, dir));
-  writeFileSync(stamp, `${new Date().toISOString()}\n`);
-  console.log(`Gasline: compiled in ${(performance.now() - started).toFixed(0)} ms`);
+  process.exit(1);
 }
+const sources = SOURCES.map((d) => join(root, d)).filter((d) => existsSync(d));
+if (sources.length && Math.max(...sources.map(newest)) > statSync(stamp).mtimeMs)
+  console.warn(
+    'Gasline: a source file is newer than the build in dist/: run npm run build to use it',
+  );
 
 await import(
   pathToFileURL(

@@ -1,7 +1,7 @@
 // Display formatting for the note: canonical values become strings in the clinician's own units.
 // Rounding here is for display only; nothing computed here feeds back into a calculation.
-import { units as U } from '../calc/index.ts';
-import type { Band } from '../calc/index.ts';
+import { FIELD, units as U } from '../calc/index.ts';
+import type { Band, FieldPath } from '../calc/index.ts';
 
 /** A display string, or null when the value is unknown (templates test for it, never print it). */
 export type Text = string | null;
@@ -49,11 +49,8 @@ export interface Formatter {
   mmol(value: Maybe, decimals?: number): Text;
   mmolBand(band: Band | null | undefined): Text;
   mosm(value: Maybe): Text;
-  albumin(gDl: Maybe): Text;
-  glucose(mmolL: Maybe): Text;
-  urea(mmolL: Maybe): Text;
-  creatinine(umolL: Maybe): Text;
-  hb(gDl: Maybe): Text;
+  /** a value of the table of fields, in the clinician's unit with the decimals the table gives */
+  field(path: FieldPath, value: Maybe): Text;
   plain(value: Maybe, decimals: number): Text;
   fixed(value: Maybe, decimals: number): Text;
   withUnit(value: Maybe, decimals: number, unit: string): Text;
@@ -77,10 +74,15 @@ export function formatter(units: U.Units): Formatter {
     if (low === null || high === null) return null;
     return withUnit(low === high ? low : `${low}-${high}`, unit);
   };
-  const convert = (kind: U.Quantity, value: Maybe, decimalsBy: (unit: string) => number): Text => {
+  const field = (path: FieldPath, value: Maybe): Text => {
     if (!known(value)) return null;
-    const unit = U.unitLabel(kind, units);
-    return withUnit(numberText(U.fromCanonical(kind, value, units), decimalsBy(unit), true), unit);
+    const f = FIELD[path];
+    if (!f.quantity) return withUnit(numberText(value, f.decimals), f.unit);
+    const unit = U.unitDef(f.quantity, units);
+    return withUnit(
+      numberText(U.fromCanonical(f.quantity, value, units), unit.decimals, true),
+      unit.label,
+    );
   };
   return {
     units,
@@ -98,13 +100,7 @@ export function formatter(units: U.Units): Formatter {
     mmol: (value, decimals = 1) => withUnit(numberText(value, decimals), 'mmol/L'),
     mmolBand: (b) => band(b, (x) => numberText(x, 1), 'mmol/L'),
     mosm: (value) => withUnit(numberText(value, 1), 'mOsm/kg'),
-    // g/dL with 1 decimal, g/L whole
-    albumin: (gDl) => convert('albumin', gDl, (unit) => (unit === 'g/L' ? 0 : 1)),
-    // mg/dL whole, mmol/L 1 decimal
-    glucose: (mmolL) => convert('glucose', mmolL, (unit) => (unit === 'mg/dL' ? 0 : 1)),
-    urea: (mmolL) => convert('urea', mmolL, (unit) => (unit === 'mg/dL' ? 0 : 1)),
-    creatinine: (umolL) => convert('creatinine', umolL, (unit) => (unit === 'mg/dL' ? 1 : 0)),
-    hb: (gDl) => convert('hb', gDl, (unit) => (unit === 'g/L' ? 0 : 1)),
+    field,
     plain: (value, decimals) => numberText(value, decimals),
     fixed: (value, decimals) => numberText(value, decimals, true),
     withUnit: (value, decimals, unit) => withUnit(numberText(value, decimals), unit),

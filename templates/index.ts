@@ -4,7 +4,8 @@ import nunjucks from 'nunjucks';
 import { readdirSync, statSync } from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
-import type { Findings, Flag } from '../calc/index.ts';
+import { interpret, type Findings, type Flag } from '../calc/index.ts';
+import { EXAMPLES } from './examples.ts';
 import { formatter } from './format.ts';
 import { flagView } from './flagView.ts';
 import { buildView, type NoteFormat } from './view.ts';
@@ -133,7 +134,7 @@ export function createNoteRenderer(options: { templateDir?: string | null } = {}
   const handover = env.getTemplate(ENTRY.handover, true);
   const flagMessage = new nunjucks.Template(FLAG_MESSAGE_SOURCE, env, 'flag-message', true);
 
-  return {
+  const renderer: NoteRenderer = {
     render(findings, renderOptions = {}) {
       if (!isFindings(findings))
         throw new TypeError(
@@ -143,11 +144,11 @@ export function createNoteRenderer(options: { templateDir?: string | null } = {}
       if (format !== 'text' && format !== 'markdown')
         throw new TypeError(`Unknown note format "${String(format)}": use "text" or "markdown"`);
       const v = buildView(findings, format);
-      const oneLine = paragraph(line.render({ v }));
+      const oneLine = paragraph(run(line, { v }));
       return {
         line: oneLine,
-        text: tidy(note.render({ v, line: oneLine })),
-        handover: tidy(handover.render({ v })),
+        text: tidy(run(note, { v, line: oneLine })),
+        handover: tidy(run(handover, { v })),
         format,
       };
     },
@@ -155,7 +156,54 @@ export function createNoteRenderer(options: { templateDir?: string | null } = {}
       if (!isFindings(findings))
         throw new TypeError('flagMessage() needs the findings the flag came from');
       const view = flagView(flag, findings, formatter(findings.units));
-      return paragraph(flagMessage.render({ flag: view, v: { md: false } }));
+      return paragraph(run(flagMessage, { flag: view, v: { md: false } }));
     },
   };
+  // a department's folder is code: every invented example must render with it before the server starts
+  if (departmentDir) checkDepartmentTemplates(renderer, departmentDir);
+  return renderer;
+}
+
+/**
+ * A template that failed while rendering: its class and the template's name only (the message of a template
+ * error can quote the data, and no case value may reach a log).
+ */
+export class TemplateError extends Error {
+  constructor(
+    readonly template: string,
+    readonly kind: string,
+  ) {
+    super(`template ${template} failed (${kind})`);
+    this.name = 'TemplateError';
+  }
+}
+
+function run(template: nunjucks.Template, data: Record<string, unknown>): string {
+  try {
+    return template.render(data);
+  } catch (error) {
+    // nunjucks names the template that failed at the start of its message: "(plan.njk) [Line 4, Column 3]"
+    const named = /^\(([^()\n]{1,200})\)/.exec(error instanceof Error ? error.message : '');
+    // the file name only: where a department keeps its folder is the deployment's business
+    const file = named?.[1]?.replace(/^.*[\\/]/, '') ?? 'unknown';
+    throw new TemplateError(file, error instanceof Error ? error.name : typeof error);
+  }
+}
+
+/** Render every invented example, in both formats and every flag's sentence, or refuse with a clear message. */
+function checkDepartmentTemplates(renderer: NoteRenderer, dir: string): void {
+  for (const [name, example] of Object.entries(EXAMPLES)) {
+    const findings = interpret(example);
+    if (!findings.ok) continue;
+    try {
+      for (const format of ['text', 'markdown'] as const) renderer.render(findings, { format });
+      for (const flag of findings.flags) renderer.flagMessage(flag, findings);
+    } catch (error) {
+      const what =
+        error instanceof TemplateError ? `${error.template} failed (${error.kind})` : String(error);
+      throw new Error(
+        `The note templates in "${dir}" (NOTE_TEMPLATES) cannot render the invented example "${name}": ${what}. Gasline will not start with templates that fail; fix the template or remove it to use the default.`,
+      );
+    }
+  }
 }

@@ -14,6 +14,8 @@ export interface DraftOptions {
   edited: { note?: string; handover?: string } | null;
   /** the follow-up form, refused with its message and what was typed */
   followUp: { error: string; typed: string } | null;
+  /** filing the draft back into the record, when the launch allows it, and what the last filing gave */
+  fileBack: { filed: { ok: boolean; message: string } | null } | null;
   autofocus: boolean;
 }
 
@@ -102,6 +104,7 @@ export function draftView(f: Findings, answers: Json, renderer: NoteRenderer, o:
       inputs: e.inputs.map((i) => `${i.name} ${valueText(i.value, i.unit, f.units)}`).join('; '),
     })),
     followUp: followUpView(answers, o.followUp),
+    fileBack: o.fileBack,
     autofocus: o.autofocus,
   };
 }

@@ -19,7 +19,7 @@ export interface Question {
 
 /** A draft case as an intake fills it (any sample named in it). */
 interface DraftCase {
-  sample?: string;
+  sample?: string | null;
 }
 
 /** What the paste intake gives back, as far as the page shows it. */
@@ -60,7 +60,14 @@ export interface FhirReading {
   errors: readonly FieldError[];
   questions: readonly Question[];
   unused: readonly { code: string | null; display: string; reason: string; source: string }[];
-  superseded: readonly { path: string; value: number; unit: string; effective: string | null }[];
+  /** results the case does not hold, with their time and the reason (an older repeat, a value of another time) */
+  earlier: readonly {
+    path: string;
+    value: number;
+    unit: string;
+    effective: string | null;
+    reason: string;
+  }[];
   notes: readonly string[];
 }
 
@@ -227,10 +234,10 @@ export function intakeOf(raw: RawIntake, text: string): Intake {
       text: [u.code, u.display].filter(Boolean).join(' ') || u.source,
       reason: u.reason,
     });
-  for (const s of r.superseded) {
+  for (const s of r.earlier) {
     out.setAside.push({
       text: `${labelOf(s.path, sample)} ${s.value}${s.unit ? ` ${s.unit}` : ''}${s.effective ? ` (${s.effective})` : ''}`,
-      reason: 'an older result; the latest one is read',
+      reason: s.reason,
     });
   }
   out.notes = [...r.notes];

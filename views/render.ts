@@ -67,6 +67,12 @@ export interface Presentation {
   pasted?: string[];
   /** the follow-up form on the draft, refused with its message and what was typed */
   followUp?: { error: string; typed: string } | null;
+  /** a message above the flow (a launch from the record that could not go on), the manual path still open */
+  notice?: { title: string; message: string } | null;
+  /** the launch from the record: its start link on the first step, filing the draft back when granted */
+  launch?: { standalone: string | null; fileBack: boolean } | null;
+  /** what filing the draft back gave */
+  filed?: { ok: boolean; message: string } | null;
 }
 
 const fieldId = (name: string) => `f-${name.replace(/[^a-zA-Z0-9]+/g, '-')}`;
@@ -216,13 +222,16 @@ export function flowView(read: Read | FlowState, deps: RenderDeps, p: Presentati
           format: state.format,
           edited: p.edited ?? null,
           followUp: p.followUp ?? null,
-          autofocus: !p.keepFocus && !p.followUp,
+          fileBack: p.launch?.fileBack ? { filed: p.filed ?? null } : null,
+          autofocus: !p.keepFocus && !p.followUp && !p.filed,
         })
       : null;
   const openTitle = p.paste ? p.paste.title : open ? STEPS[open].title : null;
   return {
     title: `${openTitle ?? (draft ? 'Draft note' : 'New case')} · Gasline`,
     announce: p.announce ?? '',
+    notice: p.notice ?? null,
+    launch: p.launch ?? null,
     state: stateFields(state),
     items,
     draft,

@@ -1,6 +1,8 @@
 // pH, [H+] and the Henderson equation (calc/acidBase.ts).
 import { describe, expect, it } from 'vitest';
-import {
+import { acidBase } from '../../calc/index.ts';
+
+const {
   hendersonBicarbonate,
   hendersonConsistency,
   hendersonHasselbalchPh,
@@ -9,7 +11,7 @@ import {
   hendersonPco2,
   hydrogenIon,
   phFromHydrogenIon,
-} from '../../calc/acidBase.ts';
+} = acidBase;
 
 describe('[H+] nmol/L = 10^(9 - pH) (definition of pH)', () => {
   it.each([

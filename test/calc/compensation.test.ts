@@ -1,17 +1,17 @@
 // Expected compensation, the reference point and the naming of processes (calc/compensation.ts).
 import { describe, expect, it } from 'vitest';
-import {
-  baselineFromUsualPh,
-  classify,
+import { acidBase, classification, compensation, referencePoints } from '../../calc/index.ts';
+
+const { baselineFromUsualPh, referencePoint } = referencePoints;
+const { classify, phStatus } = classification;
+const {
   expectedHco3,
   metabolicAlkalosisPco2,
-  phStatus,
-  referencePoint,
   respiratoryAcidosisHco3,
   respiratoryAlkalosisHco3,
   wintersPco2,
-} from '../../calc/compensation.ts';
-import { hydrogenIon } from '../../calc/acidBase.ts';
+} = compensation;
+const { hydrogenIon } = acidBase;
 
 describe("Winters' formula: expected PaCO2 = 1.5 x HCO3 + 8 +/- 2 (Albert, Dell, Winters 1967)", () => {
   it.each([

@@ -2,7 +2,7 @@
 // the alveolar ventilation equation predicts (West, Respiratory Physiology: at constant VCO2,
 // VA1 x PaCO2_1 = VA2 x PaCO2_2).
 import { describe, expect, it } from 'vitest';
-import { interpret, type Findings } from '../../calc/index.ts';
+import { gasTime, inTimeOrder, interpret, type Findings } from '../../calc/index.ts';
 
 const read = (c: unknown): Findings => {
   const f = interpret(c);
@@ -93,5 +93,40 @@ describe('predicted against observed PaCO2 after a ventilator change', () => {
   it('an earlier gas without its settings: the prediction is unavailable', () => {
     const f = read({ ...after(41, 7.38, 23.8), previous: [{ gas: before.gas }] });
     expect(f.serial?.predictionUnavailable).toBe('settings_missing');
+  });
+});
+
+describe('gases in time order (one function for the note, the chart and the page)', () => {
+  it('"2026-03-02 04:10" and "2026-03-02T04:10" are the same moment; a date alone is its midnight (ISO 8601 date and time, space or T)', () => {
+    expect(gasTime('2026-03-02 04:10')).toBe(gasTime('2026-03-02T04:10'));
+    expect(gasTime('2026-03-02')).toBe(Date.UTC(2026, 2, 2));
+    expect(gasTime('yesterday night')).toBeNull();
+    expect(gasTime(null)).toBeNull();
+  });
+
+  it('orders a space-separated and a T-separated time by the time, not by the character between date and time', () => {
+    // compared as text, "2026-03-02 04:10" sorts before "2026-03-02T03:00" (a space is below "T"): the wrong order
+    const gases = [{ takenAt: '2026-03-02 04:10' }, { takenAt: '2026-03-02T03:00' }];
+    expect(inTimeOrder(gases).map((g) => g.takenAt)).toEqual([
+      '2026-03-02T03:00',
+      '2026-03-02 04:10',
+    ]);
+  });
+
+  it('keeps the order entered when a gas has no time it can place', () => {
+    const gases = [{ takenAt: '2026-03-02T05:00' }, { takenAt: 'after the bronchoscopy' }];
+    expect(inTimeOrder(gases)).toEqual(gases);
+  });
+
+  it('the note compares the latest earlier gas by time, whichever way its time is written', () => {
+    const f = read({
+      ...after(41, 7.38, 23.8),
+      previous: [
+        { ...before, takenAt: '2026-05-10 03:10', gas: { ph: 7.3, pco2: 50, hco3: 24.2 } },
+        { ...before, takenAt: '2026-05-10T02:00' },
+      ],
+    });
+    expect(f.serial?.last.takenAt).toBe('2026-05-10 03:10');
+    expect(f.changes.find((x) => x.field === 'pco2')?.from).toBe(50);
   });
 });

@@ -1,13 +1,15 @@
 // Osmolar gap and lactate bands (calc/osmolality.ts).
 import { describe, expect, it } from 'vitest';
-import {
+import { units } from '../../calc/index.ts';
+import { osmolality } from '../../calc/index.ts';
+
+const {
   calculatedOsmolality,
   calculatedOsmolalityConventional,
   lactateBand,
   osmolarGap,
   osmolarGapRaised,
-} from '../../calc/osmolality.ts';
-import { units } from '../../calc/index.ts';
+} = osmolality;
 
 const conventional = units.DEFAULT_UNITS; // glucose, BUN and ethanol in mg/dL
 const glucoseMgDlToMmolL = (v: number) => units.toCanonical('glucose', v, conventional);

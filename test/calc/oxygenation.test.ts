@@ -1,6 +1,9 @@
 // Barometric pressure, alveolar gas, A-a gradient, P/F and S/F, O2 content (calc/oxygenation.ts).
 import { describe, expect, it } from 'vitest';
-import {
+import { ucum } from './helpers.ts';
+import { oxygenation } from '../../calc/index.ts';
+
+const {
   aaGradient,
   alveolarPo2,
   barometricPressureAtAltitude,
@@ -11,8 +14,7 @@ import {
   pfRatio,
   sfMeetsCriterion,
   sfRatio,
-} from '../../calc/oxygenation.ts';
-import { ucum } from './helpers.ts';
+} = oxygenation;
 
 describe('barometric pressure from altitude: ICAO standard atmosphere (ISO 2533)', () => {
   // The same troposphere law from the ISO 2533 constants: T0 288.15 K, lapse 0.0065 K/m, g0 9.80665 m/s2,

@@ -1,12 +1,14 @@
 // Standard base excess, the physicochemical partition and the strong ion gap (calc/physicochemical.ts).
 import { describe, expect, it } from 'vitest';
-import {
+import { physicochemical } from '../../calc/index.ts';
+
+const {
   apparentStrongIonDifference,
   effectiveStrongIonDifference,
   physicochemicalPartition,
   standardBaseExcess,
   strongIonGap,
-} from '../../calc/physicochemical.ts';
+} = physicochemical;
 
 describe('standard base excess = 0.93 x (HCO3 - 24.4 + 14.8 x (pH - 7.40)) (Van Slyke equation, CLSI C46-A2 2009)', () => {
   it.each([

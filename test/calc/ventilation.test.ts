@@ -1,6 +1,8 @@
 // Predicted body weight, dead space, alveolar ventilation, target PaCO2 and the settings to reach it (calc/ventilation.ts).
 import { describe, expect, it } from 'vitest';
-import {
+import { acidBase, ventilation } from '../../calc/index.ts';
+
+const {
   alveolarVentilation,
   co2ProductionEstimate,
   drivingPressure,
@@ -15,8 +17,8 @@ import {
   ventilatoryRatio,
   vtForTarget,
   vtPerKg,
-} from '../../calc/ventilation.ts';
-import { hydrogenIon } from '../../calc/acidBase.ts';
+} = ventilation;
+const { hydrogenIon } = acidBase;
 
 describe('predicted body weight (ARDS Network 2000): male 50, female 45.5, + 0.91 x (height cm - 152.4)', () => {
   it.each([

@@ -30,7 +30,7 @@ export function browserGate(file: string): boolean {
   return false;
 }
 
-const ARGS = [
+export const ARGS = [
   '--headless',
   '--no-sandbox',
   '--disable-gpu',

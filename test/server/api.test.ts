@@ -1,7 +1,10 @@
 // The JSON API end to end with app.request, against ../shared/interface-contract.md.
 import { describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app.ts';
-import { MMHG_PER_KPA } from '../../calc/units.ts';
+import { TemplateError } from '../../templates/index.ts';
+import { units } from '../../calc/index.ts';
+
+const { MMHG_PER_KPA } = units;
 
 const app = createApp();
 
@@ -277,5 +280,28 @@ describe('POST /api/interpret: errors', () => {
     const res = await app.request('/api/nothing');
     expect(res.status).toBe(404);
     expect((await res.json()).ok).toBe(false);
+  });
+});
+
+describe('a note template that fails while serving', () => {
+  it('is answered 500 without echoing the case, and logged as its class and file name only', async () => {
+    const logged: string[] = [];
+    const failing = createApp({
+      renderer: {
+        render: () => {
+          throw new TemplateError('plan.njk', 'Template render error');
+        },
+        flagMessage: () => '',
+      },
+      errorLog: (line) => logged.push(line),
+    });
+    const res = await failing.request('/api/interpret', {
+      method: 'POST',
+      headers: { 'content-type': 'application/json' },
+      body: JSON.stringify(ventilatedMmHg),
+    });
+    expect(res.status).toBe(500);
+    expect(await res.text()).not.toContain('7.31');
+    expect(logged).toEqual(['note template error: Template render error in plan.njk']);
   });
 });

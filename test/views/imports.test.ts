@@ -111,9 +111,7 @@ describe('the rooms point one way', () => {
     expect(forbidden(arrowsOf(files))).toEqual([]);
   });
 
-  // Enabled when the rewrite of server/intake/ (the paste and FHIR readers deriving from calc's table of fields,
-  // through calc/index.ts only) is merged: today fhir.ts and loinc.ts import calc/schema.ts and calc/units.ts.
-  it.skip('server/intake/ imports only calc/index.ts, besides its own files and packages', () => {
+  it('server/intake/ imports only calc/index.ts, besides its own files and packages', () => {
     const arrows = arrowsOf(filesUnder('server/intake'));
     expect(arrows.length).toBeGreaterThan(0);
     const outside = arrows.filter(

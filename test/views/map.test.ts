@@ -8,12 +8,6 @@ import { createRequire } from 'node:module';
 import { describe, expect, it } from 'vitest';
 import { interpret, type Findings } from '../../calc/index.ts';
 import {
-  metabolicAlkalosisPco2,
-  respiratoryAcidosisHco3,
-  respiratoryAlkalosisHco3,
-  wintersPco2,
-} from '../../calc/compensation.ts';
-import {
   acidBaseMap,
   bandPolygon,
   bandsContaining,
@@ -26,6 +20,10 @@ import {
   type Frame,
   type PhHco3,
 } from '../../views/map.ts';
+import { compensation } from '../../calc/index.ts';
+
+const { metabolicAlkalosisPco2, respiratoryAcidosisHco3, respiratoryAlkalosisHco3, wintersPco2 } =
+  compensation;
 
 // ---------- invented cases ----------
 

@@ -89,7 +89,8 @@ describe('reading a gas', () => {
       errors: [],
       questions: [],
       unused: [],
-      superseded: [],
+      previous: [],
+      earlier: [],
       conversions: [],
       missing: [],
     });
@@ -364,7 +365,8 @@ describe('what is not used is reported', () => {
       'status "cancelled": not a result to use',
       'status "registered": not a result to use',
     ]);
-    expect(r.superseded).toEqual([]);
+    expect(r.earlier).toEqual([]);
+    expect(r.case.previous).toBeUndefined();
   });
 
   it('a value given as a bound ("<0.5") is reported, not used', () => {
@@ -385,7 +387,7 @@ describe('what is not used is reported', () => {
 });
 
 describe('several results for one value', () => {
-  it('the latest gas wins, and every older result is reported', () => {
+  it("the latest gas is the case's gas, and the older gas is reported as a previous gas with its time", () => {
     const r = caseFromFhir(
       bundle(
         'collection',
@@ -394,13 +396,33 @@ describe('several results for one value', () => {
       ),
     );
     expect(r.case.gas).toEqual({ ph: 7.31, pco2: 48, po2: 72, hco3: 23.5 });
-    expect(r.superseded.map((s) => [s.path, s.value, s.effective, s.keptSource])).toEqual([
-      ['gas.ph', 7.22, T0, 'entry[4].resource'],
-      ['gas.pco2', 61, T0, 'entry[5].resource'],
-      ['gas.po2', 65, T0, 'entry[6].resource'],
-      ['gas.hco3', 24.3, T0, 'entry[7].resource'],
+    expect(r.takenAt).toBe(T1);
+    expect(r.case.previous).toEqual([
+      { takenAt: T0, gas: { ph: 7.22, pco2: 61, po2: 65, hco3: 24.3 } },
     ]);
+    expect(
+      r.previous.map((p) => [p.index, p.takenAt, p.read.map((x) => [x.path, x.source])]),
+    ).toEqual([
+      [
+        0,
+        T0,
+        [
+          ['gas.ph', 'entry[0].resource'],
+          ['gas.pco2', 'entry[1].resource'],
+          ['gas.po2', 'entry[2].resource'],
+          ['gas.hco3', 'entry[3].resource'],
+        ],
+      ],
+    ]);
+    expect(r.read.map((x) => x.source)).toEqual([
+      'entry[4].resource',
+      'entry[5].resource',
+      'entry[6].resource',
+      'entry[7].resource',
+    ]);
+    expect(r.earlier).toEqual([]);
     expect(r.ok).toBe(true);
+    expect(parseCase(r.case).ok).toBe(true);
   });
 
   it('latest values from different times are asked about: they may not be one sample', () => {

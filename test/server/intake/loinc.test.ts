@@ -1,8 +1,11 @@
-// The LOINC table and its UCUM units, checked against outside rules: the LOINC check digit and a UCUM library.
+// The LOINC codes the FHIR reader takes from calc's table, and their UCUM units, checked against outside rules:
+// the LOINC check digit and a UCUM library.
 import { createRequire } from 'node:module';
 import { describe, expect, it } from 'vitest';
-import { LOINC_CODES, LOINC_NOT_READ, UCUM } from '../../../server/intake/index.ts';
-import { toCanonical, DEFAULT_UNITS } from '../../../calc/units.ts';
+import { LOINC_CODES, LOINC_NOT_READ, ucumCodes } from '../../../server/intake/index.ts';
+import { FIELDS, units } from '../../../calc/index.ts';
+
+const { toCanonical, DEFAULT_UNITS } = units;
 
 const ucum = createRequire(import.meta.url)('@lhncbc/ucum-lhc').UcumLhcUtils.getInstance();
 
@@ -58,7 +61,7 @@ describe('LOINC codes', () => {
 });
 
 describe('UCUM units', () => {
-  const codes = [...new Set(Object.values(UCUM).flatMap((m) => Object.keys(m)))];
+  const codes = [...new Set(LOINC_CODES.flatMap((e) => ucumCodes(e)))];
   it.each(codes)('"%s" is a valid UCUM code (ucum-lhc)', (code) => {
     expect(ucum.validateUnitString(code, true).status).toBe('valid');
   });
@@ -80,16 +83,50 @@ describe('UCUM units', () => {
   });
 
   it('each accepted code means the unit the case is told (mass codes take mass units, moles codes take mole units)', () => {
-    // the UCUM property as ucum-lhc names it: 'mass' or 'amount of substance'
+    // the UCUM property as ucum-lhc names it: 'mass' or 'amount of substance'; the code's property is in its
+    // LOINC long common name ([Mass/volume] or [Moles/volume])
     const property = (code: string): string => {
       const unit = ucum.getSpecifiedUnit(code, 'validate').unit;
       if (!unit) throw new Error(`ucum-lhc does not know ${code}`);
       return String(unit.property_);
     };
-    for (const kind of ['glucoseMass', 'bun', 'creatinineMass', 'albumin', 'hb'] as const)
-      for (const code of Object.keys(UCUM[kind])) expect(property(code)).toBe('mass');
-    for (const kind of ['glucoseMolar', 'ureaMolar', 'creatinineMolar'] as const)
-      for (const code of Object.keys(UCUM[kind]))
-        expect(property(code)).toBe('amount of substance');
+    const checked = LOINC_CODES.filter((e) => e.unit !== undefined);
+    expect(checked.map((e) => e.code).sort()).toEqual(
+      ['2345-7', '2339-0', '14749-6', '15074-8', '3094-0', '6299-2', '22664-7']
+        .concat(['2160-0', '38483-4', '14682-9', '59826-8'])
+        .sort(),
+    );
+    for (const e of checked) {
+      const expected = e.name.includes('[Mass/volume]') ? 'mass' : 'amount of substance';
+      expect(e.name).toMatch(/\[(?:Mass|Moles)\/volume\]/);
+      for (const code of ucumCodes(e)) expect(property(code)).toBe(expected);
+    }
+    for (const e of LOINC_CODES.filter(
+      (x) => x.path === 'gas.hb' || x.path === 'chemistry.albumin',
+    ))
+      for (const code of ucumCodes(e)) expect(property(code)).toBe('mass');
+  });
+
+  it('mEq/L (UCUM meq/L) is taken for an ion of known charge, never for phosphate (a mix of valences)', () => {
+    const takes = (path: string) => ucumCodes(LOINC_CODES.find((e) => e.path === path)!);
+    for (const path of [
+      'chemistry.na',
+      'chemistry.k',
+      'chemistry.ionisedCalcium',
+      'chemistry.magnesium',
+    ])
+      expect(takes(path)).toContain('meq/L');
+    expect(takes('chemistry.phosphate')).not.toContain('meq/L');
+    // the charge of each ion is the table's; ucum-lhc converts meq/L with the charge given (eq = mol / charge)
+    const charge = (path: string) => FIELDS.find((f) => f.path === path)!;
+    expect(charge('chemistry.ionisedCalcium')).toMatchObject({ charge: 2 });
+    expect(charge('chemistry.magnesium')).toMatchObject({ charge: 2 });
+    expect(charge('chemistry.k')).toMatchObject({ charge: 1 });
+    expect(ucum.convertUnitTo('meq/L', 2.3, 'mmol/L', { charge: 2 }).toVal).toBeCloseTo(1.15, 10);
+  });
+
+  it('every code the FHIR reader reads is a code of the table (the reader keeps no list of its own)', () => {
+    const table = FIELDS.flatMap((f) => ('loinc' in f ? f.loinc.map((l) => l.code) : []));
+    expect(LOINC_CODES.map((e) => e.code)).toEqual(table);
   });
 });

@@ -3,7 +3,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { parsePaste, type PasteResult } from '../../../server/intake/index.ts';
-import type { IntakeCase } from '../../../server/intake/index.ts';
+import { FIELD, type CaseInput, type FieldPath } from '../../../calc/index.ts';
 
 const RUNS = Number(process.env.FC_RUNS ?? 300);
 
@@ -202,6 +202,11 @@ const LABEL_WORDS = [
   'PAO2',
   'Base deficit',
   'tCO2',
+  'Ca++',
+  'iCa',
+  'Ca',
+  'Mg',
+  'PO4',
 ];
 const UNIT_WORDS = [
   'mmHg',
@@ -286,27 +291,38 @@ function numbersIn(text: string): Set<number> {
   return out;
 }
 
-const caseNumbers = (c: IntakeCase): number[] =>
+const caseNumbers = (c: CaseInput): number[] =>
   [c.gas, c.chemistry ?? {}, c.oxygen ?? {}, c.context ?? {}].flatMap((g) =>
     Object.values(g as Record<string, number>),
   );
+const valueAt = (c: CaseInput, path: string): unknown =>
+  path
+    .split('.')
+    .reduce<unknown>((node, key) => (node as Record<string, unknown> | undefined)?.[key], c);
 
 describe('no text puts a number into the case that it does not contain', () => {
   const check = (text: string) => {
     const r = parsePaste(text);
     const written = numbersIn(text);
-    for (const v of caseNumbers(r.case)) expect(written.has(Math.abs(v))).toBe(true);
+    // a value read from mEq/L is the written number over the ion's charge (the table's); any other is as written
+    const fromMeq = new Map(r.read.filter((x) => x.written).map((x) => [x.value, x]));
+    for (const v of caseNumbers(r.case)) {
+      const x = fromMeq.get(v);
+      if (x) {
+        expect(x.written!.unit).toBe('mEq/L');
+        expect(x.value * FIELD[x.path as FieldPath].charge!).toBeCloseTo(x.written!.value, 10);
+        expect(written.has(Math.abs(x.written!.value))).toBe(true);
+      } else expect(written.has(Math.abs(v))).toBe(true);
+    }
     // what is read is what is in the case, and its source is in the text
     for (const x of r.read) {
-      const [group, key] = x.path.split('.') as [keyof IntakeCase, string];
-      expect((r.case[group] as Record<string, number>)[key]).toBe(x.value);
+      expect(valueAt(r.case, x.path)).toBe(x.value);
       expect(text.includes(x.sourceText.split(' / ')[0]!.split(' (column')[0]!)).toBe(true);
     }
     // a value that is asked about is not also filled
     for (const q of r.questions) {
       if (!q.path.includes('.') || q.path.startsWith('units')) continue;
-      const [group, key] = q.path.split('.') as [keyof IntakeCase, string];
-      expect((r.case[group] as Record<string, number> | undefined)?.[key]).toBeUndefined();
+      expect(valueAt(r.case, q.path)).toBeUndefined();
     }
   };
 

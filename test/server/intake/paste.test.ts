@@ -515,7 +515,9 @@ describe('conflicts and doubt', () => {
     const r = parsePaste('pH 9.1\nK+ 12 mmol/L');
     expect(r.case).toEqual({ gas: {} });
     expect(r.questions.map((q) => q.path)).toEqual(['gas.ph', 'chemistry.k']);
-    expect(r.questions[0]!.reason).toContain('6.5-8');
+    // the range as calc's rangeText writes it, in the unit read
+    expect(r.questions[0]!.reason).toContain('plausible range 6.50-8.00');
+    expect(r.questions[1]!.reason).toContain('plausible range 1-10 mmol/L');
   });
 
   it('two sample types named: asked', () => {

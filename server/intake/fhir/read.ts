@@ -1,0 +1,71 @@
+// FHIR R4 intake: a Bundle (collection, searchset, transaction), a list of Observations or one Observation
+// -> a draft case. Reads LOINC-coded Observations with UCUM valueQuantity units (the codes and units are calc's
+// table of fields); groups the results into gases by time (the newest is the case's gas, the earlier ones its
+// previous gases); reports every code it does not use, every result it sets aside and every unit it converts.
+// Pure: no I/O. A value without a usable unit is an error, never a guess.
+import { missingGas } from '../case.ts';
+import { build } from './build.ts';
+import { readObservation, type ReadState } from './observation.ts';
+import { isObject, resources, text } from './payload.ts';
+import type { FhirResult } from './types.ts';
+
+export function caseFromFhir(json: unknown): FhirResult {
+  const result: FhirResult = {
+    ok: false,
+    case: { gas: {} },
+    takenAt: null,
+    read: [],
+    previous: [],
+    earlier: [],
+    unused: [],
+    conversions: [],
+    errors: [],
+    questions: [],
+    notes: [],
+    missing: [],
+  };
+  const state: ReadState = { result, items: [], known: new Set() };
+  let payload = json;
+  if (typeof payload === 'string') {
+    try {
+      payload = JSON.parse(payload);
+    } catch {
+      result.errors.push({
+        path: '(body)',
+        message:
+          'The text is not JSON: send a FHIR Bundle, a list of Observations or one Observation',
+      });
+      return finish(result);
+    }
+  }
+  const located = resources(payload, result);
+  for (const { resource, fullUrl } of located) {
+    if (fullUrl) state.known.add(fullUrl);
+    if (isObject(resource) && resource.resourceType && resource.id)
+      state.known.add(`${text(resource.resourceType)}/${text(resource.id)}`);
+  }
+  for (const { resource, source } of located) {
+    if (!isObject(resource)) {
+      result.errors.push({ path: source, message: 'A resource must be a JSON object' });
+      continue;
+    }
+    if (resource.resourceType !== 'Observation') {
+      result.unused.push({
+        code: null,
+        display: text(resource.resourceType ?? 'unknown resource'),
+        reason: 'not an Observation: not read',
+        source,
+      });
+      continue;
+    }
+    readObservation(resource, source, state);
+  }
+  build(state);
+  return finish(result);
+}
+
+function finish(r: FhirResult): FhirResult {
+  r.missing = missingGas(r.case);
+  r.ok = r.errors.length === 0 && r.questions.length === 0;
+  return r;
+}
