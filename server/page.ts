@@ -2,31 +2,33 @@
 // other requests the full page. The case travels in each form and is checked by the schema each time.
 import { Hono, type Context } from 'hono';
 import { bodyLimit } from './limits.ts';
-import type { InterpretOptions } from '../calc/index.ts';
 import type { NoteRenderer } from '../templates/index.ts';
 import { BODY_LIMIT_BYTES } from './errors.ts';
 import { mediaType } from './api.ts';
 import { staticRoutes } from './static.ts';
+import type { InterpretOptions, ParsedCase } from '../calc/index.ts';
 import {
+  announceAnswer,
   answerStep,
-  awaitingFollowUp,
-  cancelFollowUp,
-  contextFor,
+  canOpen,
   emptyState,
+  readOf,
   readState,
-  startFollowUp,
-  statuses,
+  startsCase,
   type FlowState,
+  type Read,
 } from '../views/flow.ts';
+import { cancelFollowUp, startFollowUp } from '../views/followUp.ts';
+import { intakeOf, withChosenSample, type RawIntake } from '../views/intake.ts';
+import { fingerprint, pasteView } from '../views/paste.ts';
+import { confirmPaste } from '../views/pasteConfirm.ts';
 import {
-  confirmPaste,
-  fingerprint,
-  intakeOf,
-  pasteView,
-  withChosenSample,
-  type RawIntake,
-} from '../views/paste.ts';
-import { caseFromFhir, parsePaste, MAX_PASTE_CHARS } from './intake/index.ts';
+  caseFromFhir,
+  parsePaste,
+  MAX_PASTE_CHARS,
+  type FhirResult,
+  type PasteResult,
+} from './intake/index.ts';
 import {
   flowView,
   markdownPreview,
@@ -36,7 +38,8 @@ import {
   renderProblem,
   type Presentation,
 } from '../views/render.ts';
-import { STEPS, isStepId, summary, type FormValues, type StepId } from '../views/steps.ts';
+import { PASTE_STEP, STEPS, isStepId } from '../views/steps.ts';
+import type { FormValues } from '../views/paths.ts';
 
 export interface PageDeps {
   renderer: NoteRenderer;
@@ -53,8 +56,14 @@ const isObject = (x: unknown): x is Record<string, unknown> =>
   x !== null && typeof x === 'object' && !Array.isArray(x);
 const isResource = (x: unknown) => isObject(x) && typeof x.resourceType === 'string';
 
+/** What the intake read, as the server has it: handed to the views, which read it as their RawIntake. */
+export type IntakeRead =
+  | Exclude<RawIntake, { kind: 'paste' | 'fhir' }>
+  | { kind: 'paste'; result: PasteResult }
+  | { kind: 'fhir'; result: FhirResult };
+
 /** Which intake reads the text: JSON with a resourceType goes to the FHIR intake, any other text to the paste intake. */
-export function readIntake(text: string): RawIntake {
+export function readIntake(text: string): IntakeRead {
   if (text.trim() === '') return { kind: 'empty' };
   if (text.length > MAX_PASTE_CHARS)
     return { kind: 'too-long', limit: MAX_PASTE_CHARS, length: text.length };
@@ -98,27 +107,6 @@ async function readForm(c: Context): Promise<FormValues | null | 'malformed'> {
   return out;
 }
 
-/** What the live region says after an answer: what was kept, what was not asked and why, what comes next. */
-function afterAnswer(after: FlowState, id: StepId, reopened: StepId[], deps: PageDeps): string {
-  const ctx = contextFor(after, deps.interpretOptions);
-  const phrases = summary(STEPS[id], ctx, { ventilatedAnswered: after.done.includes('oxygen') });
-  const parts = [`${STEPS[id].title}: ${phrases.length ? phrases.join(', ') : 'nothing entered'}.`];
-  const list = statuses(after, ctx);
-  const next = list.find((s) => s.status === 'todo');
-  const from = list.findIndex((s) => s.id === id);
-  const to = next ? list.findIndex((s) => s.id === next.id) : list.length;
-  for (const s of list.slice(from + 1, to))
-    if (s.status === 'skipped' && s.reason) parts.push(s.reason);
-  if (reopened.length)
-    parts.push(
-      `Check ${reopened.map((s) => STEPS[s].title.toLowerCase()).join(' and ')} again: the question changed.`,
-    );
-  parts.push(
-    next ? `Next: ${STEPS[next.id].title.toLowerCase()}.` : 'The draft note is ready below.',
-  );
-  return parts.join(' ');
-}
-
 export function pageRoutes(deps: PageDeps): Hono {
   const page = new Hono();
   const limit = bodyLimit({
@@ -126,27 +114,31 @@ export function pageRoutes(deps: PageDeps): Hono {
     onError: (c) => problem(c, 413, `The form is larger than ${BODY_LIMIT_BYTES / 1024} KiB.`),
   });
 
-  const send = (c: Context, state: FlowState, p: Presentation, status: 200 | 422 = 200) => {
-    const view = flowView(state, deps, { launch: deps.launchView?.(c), ...p });
+  /** The page for a state, from its reading (made once per request: see views/flow.ts readOf). */
+  const send = (c: Context, read: Read, p: Presentation, status: 200 | 422 = 200) => {
+    const view = flowView(read, deps, { launch: deps.launchView?.(c), ...p });
     return c.html(isHtmx(c) ? renderFragment(view) : renderPage(view), status, NO_STORE);
   };
 
   /** The form and the state it carried, or the response that explains why not. */
   const withState = async (
     c: Context,
-  ): Promise<{ form: FormValues; state: FlowState } | Response> => {
+  ): Promise<{ form: FormValues; state: FlowState; parsed: ParsedCase | null } | Response> => {
     const form = await readForm(c);
     if (!form) return problem(c, 415, 'Send the form as an ordinary form post.');
     if (form === 'malformed')
       return problem(c, 400, 'The form could not be read: send it again from the page.');
-    const read = readState(form);
-    if (!read.ok) return problem(c, 400, read.message);
-    return { form, state: read.state };
+    const got = readState(form);
+    if (!got.ok) return problem(c, 400, got.message);
+    return { form, state: got.state, parsed: got.parsed };
   };
+  const opts = deps.interpretOptions;
+  // a state read for the page; its case was parsed when the form was read, and is not parsed again
+  const readIn = (state: FlowState, parsed: ParsedCase | null) => readOf(state, opts, parsed);
 
   page.route('/', staticRoutes());
 
-  page.get('/', (c) => send(c, emptyState(), { announce: '' }));
+  page.get('/', (c) => send(c, readOf(emptyState()), { announce: '' }));
   // after a post without script the address bar shows the post's path: a reload or a bookmark starts afresh
   for (const path of ['/step', '/open', '/preview', '/paste', '/followup'])
     page.get(path, (c) => c.redirect('/', 303));
@@ -157,14 +149,15 @@ export function pageRoutes(deps: PageDeps): Hono {
     const { form, state } = got;
     const id = form.step ?? '';
     if (!isStepId(id)) return problem(c, 400, 'The form did not say which step it answers.');
-    const outcome = answerStep(state, id, form, form.action === 'skip', deps.interpretOptions);
-    if (outcome.invalid) {
-      const n = outcome.invalid.errors.length;
-      const announce = `${n === 1 ? 'One answer needs' : `${n} answers need`} a change: ${outcome.invalid.errors[0]!.message}.`;
-      return send(c, state, { invalid: outcome.invalid, announce }, 422);
+    const outcome = answerStep(state, id, form, form.action === 'skip', opts);
+    if (!outcome.read) {
+      const invalid = outcome.invalid!;
+      const n = invalid.errors.length;
+      const announce = `${n === 1 ? 'One answer needs' : `${n} answers need`} a change: ${invalid.errors[0]!.message}.`;
+      return send(c, readIn(state, got.parsed), { invalid, announce }, 422);
     }
-    return send(c, outcome.state, {
-      announce: afterAnswer(outcome.state, id, outcome.reopened, deps),
+    return send(c, outcome.read, {
+      announce: announceAnswer(outcome.read, id, outcome.reopened),
       reopened: outcome.reopened,
     });
   });
@@ -178,20 +171,14 @@ export function pageRoutes(deps: PageDeps): Hono {
     if (open === 'cancel-followup') {
       const restored = cancelFollowUp(state);
       if (restored)
-        return send(c, restored, {
+        return send(c, readOf(restored.state, opts, restored.parsed), {
           announce: 'Follow-up cancelled: the gas is the current gas again.',
         });
     }
-    if (isStepId(open)) {
-      const status = statuses(state, contextFor(state, deps.interpretOptions)).find(
-        (s) => s.id === open,
-      )!;
-      const canOpen =
-        status.status === 'done' || (status.status === 'skipped' && open === 'timing');
-      if (canOpen)
-        return send(c, state, { open, announce: `Changing ${STEPS[open].title.toLowerCase()}.` });
-    }
-    return send(c, state, {
+    const read = readIn(state, got.parsed);
+    if (isStepId(open) && canOpen(read, open))
+      return send(c, read, { open, announce: `Changing ${STEPS[open].title.toLowerCase()}.` });
+    return send(c, read, {
       keepFocus: true,
       announce:
         state.format === 'markdown'
@@ -207,15 +194,11 @@ export function pageRoutes(deps: PageDeps): Hono {
     const { form, state } = got;
     const note = form.note ?? '';
     if (isHtmx(c)) return c.html(renderPreview(markdownPreview(note)), 200, NO_STORE);
-    return send(
-      c,
-      { ...state, format: 'markdown' },
-      {
-        edited: { note, handover: form.handover ?? '' },
-        keepFocus: true,
-        announce: 'Preview updated.',
-      },
-    );
+    return send(c, readIn({ ...state, format: 'markdown' }, got.parsed), {
+      edited: { note, handover: form.handover ?? '' },
+      keepFocus: true,
+      announce: 'Preview updated.',
+    });
   });
 
   // a paste on the first step: read it and show what was read; on confirm, fill the case and go on. A paste may be
@@ -234,14 +217,16 @@ export function pageRoutes(deps: PageDeps): Hono {
     const got = await withState(c);
     if (got instanceof Response) return got;
     const { form, state } = got;
-    if ('gas' in state.answers || awaitingFollowUp(state.answers))
+    if (!startsCase(state.answers))
       return problem(
         c,
         400,
         'A paste starts a new case: this case already holds a gas. Start a new case to paste another.',
       );
     const action = form.action ?? 'read';
-    if (action === 'cancel') return send(c, state, { announce: 'Enter the values step by step.' });
+    // before a gas the case holds at most a sample and units: nothing to interpret
+    const before = readOf(state);
+    if (action === 'cancel') return send(c, before, { announce: 'Enter the values step by step.' });
     const text = form.paste ?? '';
     const intake = withChosenSample(intakeOf(readIntake(text), text), state.answers.sample);
     if (action === 'confirm') {
@@ -253,20 +238,20 @@ export function pageRoutes(deps: PageDeps): Hono {
           [],
           'The text changed after it was read: here is what was read from it now. Check it, then use it.',
         );
-        return send(c, state, {
-          open: 'sample',
+        return send(c, before, {
+          open: PASTE_STEP,
           paste: view,
           announce: 'The text changed: check what was read from it now.',
         });
       }
-      const outcome = confirmPaste(state, intake, form, deps.interpretOptions);
+      const outcome = confirmPaste(state, intake, form, opts);
       if (outcome.ok)
-        return send(c, outcome.state, { announce: outcome.announce, pasted: outcome.remarks });
+        return send(c, outcome.read, { announce: outcome.announce, pasted: outcome.remarks });
       const view = pasteView(intake, form, outcome.errors);
       return send(
         c,
-        state,
-        { open: 'sample', paste: view, announce: `Not used yet: ${outcome.errors[0]!.message}` },
+        before,
+        { open: PASTE_STEP, paste: view, announce: `Not used yet: ${outcome.errors[0]!.message}` },
         422,
       );
     }
@@ -275,7 +260,12 @@ export function pageRoutes(deps: PageDeps): Hono {
     const announce = view.canConfirm
       ? `Read ${n} value${n === 1 ? '' : 's'}${intake.questions.length ? ` and ${intake.questions.length} question${intake.questions.length === 1 ? '' : 's'} to answer` : ''}: check them, then use them.`
       : `Nothing could be used: ${intake.problems[0] ?? 'no result was read'}`;
-    return send(c, state, { open: 'sample', paste: view, announce }, view.canConfirm ? 200 : 422);
+    return send(
+      c,
+      before,
+      { open: PASTE_STEP, paste: view, announce },
+      view.canConfirm ? 200 : 422,
+    );
   });
 
   // the current gas becomes an earlier one; the gas (and oxygen and ventilator) steps open for the follow-up
@@ -289,13 +279,14 @@ export function pageRoutes(deps: PageDeps): Hono {
       if (!('gas' in state.answers)) return problem(c, 400, outcome.message);
       return send(
         c,
-        state,
+        readIn(state, got.parsed),
         { followUp: { error: outcome.message, typed }, announce: outcome.message },
         422,
       );
     }
     const what = [outcome.moved.takenAt, outcome.moved.label].filter(Boolean).join(', ');
-    return send(c, outcome.state, {
+    // awaiting the follow-up gas, the case holds no gas to interpret
+    return send(c, readOf(outcome.state), {
       announce: `The gas${what ? ` (${String(what)})` : ''} is now the earlier gas. Enter the follow-up gas.`,
     });
   });

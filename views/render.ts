@@ -2,40 +2,33 @@
 // The full page and the htmx fragment come from the same templates.
 import { fileURLToPath } from 'node:url';
 import nunjucks from 'nunjucks';
-import { marked } from 'marked';
-import sanitizeHtml from 'sanitize-html';
 import {
-  units as U,
+  FIELD,
+  PREVIOUS_SETTINGS,
+  enteredUnit,
+  fieldsOf,
+  inTimeOrder,
   type FieldError,
-  type Findings,
   type InterpretOptions,
 } from '../calc/index.ts';
-import { FIELD, MAX_PREVIOUS_GASES, enteredUnit, type FieldPath } from '../calc/index.ts';
 import type { NoteRenderer } from '../templates/index.ts';
-import {
-  STEPS,
-  formValue,
-  gasLabel,
-  summary,
-  type FieldDef,
-  type FormValues,
-  type Group,
-  type Json,
-  type StepContext,
-  type StepId,
-} from './steps.ts';
+import { formValue, summary } from './answers.ts';
+import { draftView } from './draft.ts';
+import type { FieldDef } from './fields.ts';
 import {
   awaitingFollowUp,
-  contextFor,
-  earlierGases,
-  findingsOf,
   placeErrors,
+  readOf,
+  startsCase,
   statuses,
   type FlowState,
-  type Format,
+  type Read,
 } from './flow.ts';
-import { acidBaseMap } from './map.ts';
 import type { PasteView } from './paste.ts';
+import { earlierGases, getPath, type FormValues } from './paths.ts';
+import { PASTE_STEP, STEPS, caseLabel, type StepContext, type StepId } from './steps.ts';
+
+export { markdownPreview } from './draft.ts';
 
 const VIEWS_DIR = fileURLToPath(new URL('.', import.meta.url));
 
@@ -100,15 +93,12 @@ function fieldView(
   const value = formValue(f, ctx.answers, typed);
   const describedBy =
     [f.hint ? `${id}-hint` : '', error ? `${id}-error` : ''].filter(Boolean).join(' ') || null;
+  const common = { id, name: f.name, label: f.label, hint: f.hint ?? null, error, describedBy };
   if (f.kind === 'choice') {
     return {
+      ...common,
       kind: f.quick ? 'quick' : 'choice',
-      id,
-      name: f.name,
-      label: f.label,
-      hint: f.hint ?? null,
-      error,
-      describedBy,
+      passOver: !!f.passOver,
       options: f.options.map((o, i) => ({
         id: `${id}-${i}`,
         value: o.value,
@@ -123,44 +113,38 @@ function fieldView(
         name: f.unitChoice.name,
         label: f.unitChoice.label,
         options: f.unitChoice.options.map((o) => ({
-          ...o,
+          value: o.value,
+          label: o.label,
           selected: o.value === formValue(f.unitChoice!, ctx.answers, typed),
         })),
       }
     : null;
   return {
+    ...common,
     kind: 'number',
-    id,
-    name: f.name,
-    label: f.label,
-    hint: f.hint ?? null,
-    error,
-    describedBy,
+    passOver: false,
     unit: f.unit,
-    livePressure: isPressureField(f.name),
+    liveUnit: f.liveUnit ?? null,
     value,
     inputmode: f.negative ? 'text' : 'decimal',
     unitChoice,
   };
 }
 
-const isPressureField = (name: string) => ['gas.pco2', 'gas.po2'].includes(name);
-
-function formView(id: StepId, ctx: StepContext, state: FlowState, p: Presentation) {
+function formView(id: StepId, read: Read, p: Presentation) {
+  const { state, ctx } = read;
   const step = STEPS[id];
   const invalid = p.invalid?.step === id ? p.invalid : null;
-  const groups: Group[] = step.groups(ctx);
   const placed = placeErrors(id, invalid?.errors ?? [], ctx);
-  const views = groups.map((g) => ({
+  const views = step.groups(ctx).map((g) => ({
     legend: g.legend ?? null,
     fields: g.fields.map((f) => fieldView(f, ctx, invalid?.typed ?? null, placed.fields)),
   }));
-  // focus: the first field with an error, else the first field (the pressure unit, set once, is passed over)
+  // focus: the first field with an error, else the first field not passed over (the pressure unit, set once)
   const flat = views.flatMap((g) => g.fields) as Array<
     ReturnType<typeof fieldView> & { autofocus?: boolean }
   >;
-  const target =
-    flat.find((f) => f.error) ?? flat.find((f) => f.name !== 'units.pressure') ?? flat[0];
+  const target = flat.find((f) => f.error) ?? flat.find((f) => !f.passOver) ?? flat[0];
   if (target) target.autofocus = true;
   for (const f of flat) {
     if ((f.kind !== 'choice' && f.kind !== 'quick') || !('options' in f)) continue;
@@ -174,8 +158,8 @@ function formView(id: StepId, ctx: StepContext, state: FlowState, p: Presentatio
   const last = statuses({ ...state, done: [...state.done.filter((s) => s !== id), id] }, ctx).every(
     (s) => s.status !== 'todo',
   );
-  // a paste starts a case: offered on the first step, and from the gas step while no gas is entered
-  const fresh = !('gas' in ctx.answers) && !awaitingFollowUp(ctx.answers);
+  // a paste starts a case: its box on its own step, and a way back to it until a gas is entered
+  const fresh = startsCase(ctx.answers);
   return {
     type: 'form',
     id,
@@ -183,8 +167,9 @@ function formView(id: StepId, ctx: StepContext, state: FlowState, p: Presentatio
     question: step.question,
     remarks: [...(p.pasted ?? []), ...step.remarks(ctx)],
     groups: views,
-    paste: id === 'sample' && fresh,
-    pasteLink: id === 'gas' && fresh && state.done.includes('sample'),
+    paste: step.paste === 'box' && fresh,
+    pasteLink: step.paste === 'link' && fresh && state.done.includes(PASTE_STEP),
+    pasteStep: PASTE_STEP,
     summaryErrors: [...stepErrors, ...fieldErrors],
     skippable: !!step.skippable,
     quick: flat.some((f) => f.kind === 'quick'),
@@ -194,129 +179,15 @@ function formView(id: StepId, ctx: StepContext, state: FlowState, p: Presentatio
   };
 }
 
-// ---------- the draft ----------
-
-const SEVERITY_LABEL = { critical: 'Critical', warning: 'Check', info: 'Note' } as const;
-
-/** A number as shown in the explain view: rounded for reading only (the core keeps its own precision). */
-const shown = (value: number) => String(Math.round(value * 100) / 100);
-
-/** A value with its unit; a pressure also in kPa when that is the clinician's unit. */
-function valueText(value: number, unit: string, units: U.Units): string {
-  const main = `${shown(value)}${unit ? ` ${unit}` : ''}`;
-  if (unit === 'mmHg' && units.pressure === 'kPa')
-    return `${main} (${U.fromCanonical('pressure', value, units).toFixed(1)} kPa)`;
-  return main;
-}
-
-/** Rows enough for the text, so the whole note shows without scrolling inside the box. */
-function rowsFor(text: string, min: number, max: number): number {
-  const rows = text
-    .split('\n')
-    .reduce((n, line) => n + Math.max(1, Math.ceil(line.length / 70)), 0);
-  return Math.min(max, Math.max(min, rows + 1));
-}
-
-/** Markdown to HTML for the preview, then sanitised: the clinician's text may hold anything. */
-export function markdownPreview(text: string): string {
-  const html = marked.parse(text, { async: false, gfm: true, breaks: false });
-  return sanitizeHtml(html, {
-    allowedTags: [
-      'p',
-      'br',
-      'strong',
-      'em',
-      'b',
-      'i',
-      'ul',
-      'ol',
-      'li',
-      'h1',
-      'h2',
-      'h3',
-      'h4',
-      'h5',
-      'h6',
-      'blockquote',
-      'code',
-      'pre',
-      'hr',
-      'table',
-      'thead',
-      'tbody',
-      'tr',
-      'th',
-      'td',
-      'del',
-    ],
-    allowedAttributes: {},
-  });
-}
-
-/** The acid-base map and its words; a drawing it cannot make leaves the draft without it rather than failing. */
-function mapView(f: Findings) {
-  try {
-    // the drawing's own size (680 wide, its labels laid out for it); the key grows one row per gas, up to six
-    const map = acidBaseMap(f, { height: 660 + Math.min(f.previous.length, 5) * 16 });
-    return { svg: map.svg, lines: map.text.split('\n').filter((line) => line.trim() !== '') };
-  } catch (e) {
-    if (e instanceof RangeError) return null;
-    throw e;
-  }
-}
-
-function followUpView(answers: Json, p: Presentation) {
-  const count = earlierGases(answers).length;
-  return {
-    can: count < MAX_PREVIOUS_GASES,
-    count,
-    max: MAX_PREVIOUS_GASES,
-    error: p.followUp?.error ?? null,
-    value: p.followUp?.typed ?? '',
-  };
-}
-
-function draftView(f: Findings, format: Format, deps: RenderDeps, edited: Presentation['edited']) {
-  const note = deps.renderer.render(f, { format });
-  const text = edited?.note ?? note.text;
-  const handover = edited?.handover ?? note.handover;
-  return {
-    // the one line above the box reads as plain words whatever the box's format
-    format,
-    line: format === 'text' ? note.line : deps.renderer.render(f, { format: 'text' }).line,
-    text,
-    handover,
-    withheld: f.withheld,
-    rows: { text: rowsFor(text, 10, 60), handover: rowsFor(handover, 5, 30) },
-    edited: !!edited,
-    previewHtml: format === 'markdown' ? markdownPreview(text) : null,
-    flags: f.flags.map((flag) => ({
-      severity: flag.severity,
-      label: SEVERITY_LABEL[flag.severity],
-      message: deps.renderer.flagMessage(flag, f),
-    })),
-    map: mapView(f),
-    explain: Object.values(f.explain).map((e) => ({
-      key: e.key,
-      label: e.label,
-      value: valueText(e.value, e.unit, f.units),
-      formula: e.formula,
-      source: e.source,
-      inputs: e.inputs.map((i) => `${i.name} ${valueText(i.value, i.unit, f.units)}`).join('; '),
-    })),
-  };
-}
-
 // ---------- the whole flow ----------
 
-export function flowView(state: FlowState, deps: RenderDeps, p: Presentation = {}) {
-  const ctx = contextFor(state, deps.interpretOptions);
+export function flowView(read: Read | FlowState, deps: RenderDeps, p: Presentation = {}) {
+  const r = 'ctx' in read ? read : readOf(read, deps.interpretOptions);
+  const { state, ctx } = r;
   const list = statuses(state, ctx);
   const explicit = p.invalid?.step ?? p.open ?? null;
   const open = explicit ?? list.find((s) => s.status === 'todo')?.id ?? null;
-  const items: unknown[] = earlierGases(state.answers).map((g, i, all) =>
-    earlierView(g, i, all.length, ctx),
-  );
+  const items: unknown[] = earlierLog(ctx);
   // a skipped step is shown once the conversation has got to it: before the first unanswered step,
   // or among answers already given after it
   const frontier = list.findIndex((s) => s.status === 'todo');
@@ -326,15 +197,14 @@ export function flowView(state: FlowState, deps: RenderDeps, p: Presentation = {
     if (s.id === open && p.paste) {
       items.push(p.paste);
     } else if (s.id === open) {
-      items.push(formView(s.id, ctx, state, p));
+      items.push(formView(s.id, r, p));
     } else if (s.status === 'done') {
-      const ventilatedAnswered = state.done.includes('oxygen');
       items.push({
         type: 'answer',
         id: s.id,
         title: step.title,
         question: step.question,
-        phrases: summary(step, ctx, { ventilatedAnswered }),
+        phrases: summary(step, ctx),
       });
     } else if (s.status === 'skipped' && (frontier === -1 || i < frontier || i < lastDone)) {
       items.push({
@@ -342,19 +212,20 @@ export function flowView(state: FlowState, deps: RenderDeps, p: Presentation = {
         id: s.id,
         title: step.title,
         reason: s.reason,
-        canOpen: s.id === 'timing',
+        canOpen: !!step.openWhenSkipped,
       });
     }
   });
-  const findings = open === null ? findingsOf(state.answers, deps.interpretOptions) : null;
-  const draft = findings
-    ? {
-        ...draftView(findings, state.format, deps, p.edited ?? null),
-        followUp: followUpView(state.answers, p),
-        fileBack: p.launch?.fileBack ? { filed: p.filed ?? null } : null,
-        autofocus: !p.keepFocus && !p.followUp && !p.filed,
-      }
-    : null;
+  const draft =
+    open === null && r.findings
+      ? draftView(r.findings, state.answers, deps.renderer, {
+          format: state.format,
+          edited: p.edited ?? null,
+          followUp: p.followUp ?? null,
+          fileBack: p.launch?.fileBack ? { filed: p.filed ?? null } : null,
+          autofocus: !p.keepFocus && !p.followUp && !p.filed,
+        })
+      : null;
   const openTitle = p.paste ? p.paste.title : open ? STEPS[open].title : null;
   return {
     title: `${openTitle ?? (draft ? 'Draft note' : 'New case')} · Gasline`,
@@ -369,52 +240,46 @@ export function flowView(state: FlowState, deps: RenderDeps, p: Presentation = {
 
 // ---------- earlier gases ----------
 
-const EARLIER_FIELDS: [string, string][] = [
-  ['gas.ph', 'pH'],
-  ['gas.pco2', ''],
-  ['gas.po2', ''],
-  ['gas.hco3', 'HCO3'],
-  ['gas.baseExcess', 'Base excess'],
-  ['gas.lactate', 'Lactate'],
-  ['oxygen.fio2', 'FiO2'],
-  ['oxygen.peep', 'PEEP'],
-  ['ventilator.vt', 'VT'],
-  ['ventilator.rr', 'RR'],
-];
-const EARLIER_UNITS: Record<string, string> = {
-  'oxygen.peep': 'cmH2O',
-  'ventilator.vt': 'mL',
-  'ventilator.rr': '/min',
-};
+/** What the log reads back of an earlier gas: its gas and the settings it was taken on, in table order. */
+const EARLIER_FIELDS = [...fieldsOf('gas'), ...PREVIOUS_SETTINGS.map((p) => FIELD[p])];
 
-/** An earlier gas in the log, read back as entered, with the way back while its follow-up is not yet entered. */
-function earlierView(g: Json, index: number, count: number, ctx: StepContext) {
-  const phrases: string[] = [];
-  for (const [path, name] of EARLIER_FIELDS) {
-    const [group, key] = path.split('.') as [string, string];
-    const value = (g[group] as Json | undefined)?.[key];
-    if (typeof value !== 'number') continue;
-    const range = group === 'gas' ? FIELD[path as FieldPath] : null;
-    const label =
-      path === 'gas.pco2'
-        ? gasLabel(ctx.sample, 'CO2')
-        : path === 'gas.po2'
-          ? gasLabel(ctx.sample, 'O2')
-          : name;
-    const unit = range ? enteredUnit(range, ctx.units) : (EARLIER_UNITS[path] ?? '');
-    phrases.push(`${label} ${value}${unit ? (unit === '/min' ? unit : ` ${unit}`) : ''}`);
-  }
-  const when = [typeof g.takenAt === 'string' ? g.takenAt.replace('T', ' ') : null, g.label]
-    .filter((x): x is string => typeof x === 'string' && x.trim() !== '')
-    .join(', ');
-  return {
-    type: 'earlier',
-    id: `earlier-${index + 1}`,
-    title: `Earlier gas ${count > 1 ? `${index + 1} of ${count}` : ''}`.trim(),
-    when: when || null,
-    phrases,
-    canCancel: index === count - 1 && awaitingFollowUp(ctx.answers),
-  };
+/**
+ * The earlier gases, oldest first by time taken (calc's inTimeOrder, the order of the note and the map), each read
+ * back as entered; the one moved last keeps the way back while its follow-up is not yet entered.
+ */
+function earlierLog(ctx: StepContext) {
+  const earlier = earlierGases(ctx.answers);
+  const ordered = inTimeOrder(
+    earlier.map((g, entered) => ({
+      g,
+      entered,
+      takenAt: typeof g.takenAt === 'string' ? g.takenAt : null,
+    })),
+  );
+  const count = ordered.length;
+  return ordered.map(({ g, entered }, index) => {
+    const phrases: string[] = [];
+    for (const f of EARLIER_FIELDS) {
+      const value = getPath(g, f.path);
+      if (typeof value !== 'number') continue;
+      const unit = enteredUnit(f, ctx.units);
+      // a rate joins its number (14/min), any other unit stands apart (8 cmH2O)
+      phrases.push(
+        `${caseLabel(f, ctx.sample)} ${value}${unit && !unit.startsWith('/') ? ' ' : ''}${unit}`,
+      );
+    }
+    const when = [typeof g.takenAt === 'string' ? g.takenAt.replace('T', ' ') : null, g.label]
+      .filter((x): x is string => typeof x === 'string' && x.trim() !== '')
+      .join(', ');
+    return {
+      type: 'earlier',
+      id: `earlier-${index + 1}`,
+      title: `Earlier gas ${count > 1 ? `${index + 1} of ${count}` : ''}`.trim(),
+      when: when || null,
+      phrases,
+      canCancel: entered === count - 1 && awaitingFollowUp(ctx.answers),
+    };
+  });
 }
 
 export function stateFields(state: FlowState) {

@@ -2,7 +2,9 @@
 // POST /launch/file (the draft note filed back as a DocumentReference with the launch's access, when granted).
 import { Hono, type Context } from 'hono';
 import { readState } from '../../views/flow.ts';
-import { confirmPaste, fingerprint, pasteView, withChosenSample } from '../../views/paste.ts';
+import { withChosenSample } from '../../views/intake.ts';
+import { fingerprint, pasteView } from '../../views/paste.ts';
+import { confirmPaste } from '../../views/pasteConfirm.ts';
 import { renderProblem } from '../../views/render.ts';
 import type { FormValues } from '../../views/steps.ts';
 import { clearCookie, readRecord } from './cookies.ts';
@@ -64,7 +66,7 @@ export function formRoutes(deps: LaunchDeps): Hono {
     if (form.action === 'confirm' && form.pasteRead === fingerprint(text)) {
       const outcome = confirmPaste(state, read.intake, form, deps.interpretOptions);
       if (outcome.ok)
-        return send(c, outcome.state, { announce: outcome.announce, pasted: outcome.remarks });
+        return send(c, outcome.read.state, { announce: outcome.announce, pasted: outcome.remarks });
       const view = recordView(read, form, outcome.errors);
       return send(
         c,

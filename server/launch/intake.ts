@@ -4,7 +4,7 @@
 // launch adds the patient's age, sex and height. The same reading runs in the callback and on confirm, so what the
 // clinician confirms is what was shown.
 import { MAX_PASTE_CHARS, caseFromFhir } from '../intake/index.ts';
-import { intakeOf, type Intake } from '../../views/paste.ts';
+import { intakeOf, type Intake } from '../../views/intake.ts';
 import { readIntake } from '../page.ts';
 
 type Json = Record<string, unknown>;

@@ -91,14 +91,12 @@
     el.form.requestSubmit(read instanceof HTMLButtonElement ? read : undefined);
   });
 
-  // The pressure unit shown beside PaCO2 and PaO2 follows the unit chosen above them.
+  // A unit shown beside a value (the pressure unit beside PaCO2 and PaO2) follows the unit chosen above it.
   document.addEventListener('change', (event) => {
     var el = event.target;
-    if (!(el instanceof HTMLInputElement) || el.name !== 'units.pressure') return;
-    var form = el.form;
-    if (!form) return;
-    form.querySelectorAll('[data-unit-for="units.pressure"]').forEach((span) => {
-      span.textContent = el.value;
+    if (!(el instanceof HTMLInputElement) || !el.form) return;
+    el.form.querySelectorAll('[data-unit-for]').forEach((span) => {
+      if (span.getAttribute('data-unit-for') === el.name) span.textContent = el.value;
     });
   });
 

@@ -1,0 +1,110 @@
+// The draft under the answered steps: the note and handover (from the department's templates), the cautions, the
+// acid-base map, the explain view and the follow-up form. Built from the findings the request already holds.
+import { marked } from 'marked';
+import sanitizeHtml from 'sanitize-html';
+import { MAX_PREVIOUS_GASES, units as U, type Findings } from '../calc/index.ts';
+import type { NoteRenderer } from '../templates/index.ts';
+import { acidBaseMap } from './map.ts';
+import { earlierGases, type Json } from './paths.ts';
+import type { Format } from './flow.ts';
+
+export interface DraftOptions {
+  format: Format;
+  /** the clinician's own edits of the draft, kept across a preview */
+  edited: { note?: string; handover?: string } | null;
+  /** the follow-up form, refused with its message and what was typed */
+  followUp: { error: string; typed: string } | null;
+  /** filing the draft back into the record, when the launch allows it, and what the last filing gave */
+  fileBack: { filed: { ok: boolean; message: string } | null } | null;
+  autofocus: boolean;
+}
+
+const SEVERITY_LABEL = { critical: 'Critical', warning: 'Check', info: 'Note' } as const;
+
+/** A number as shown in the explain view: rounded for reading only (the core keeps its own precision). */
+const shown = (value: number) => String(Math.round(value * 100) / 100);
+
+/** A value with its unit; a pressure also in kPa when that is the clinician's unit. */
+function valueText(value: number, unit: string, units: U.Units): string {
+  const main = `${shown(value)}${unit ? ` ${unit}` : ''}`;
+  if (unit === 'mmHg' && units.pressure === 'kPa')
+    return `${main} (${U.fromCanonical('pressure', value, units).toFixed(1)} kPa)`;
+  return main;
+}
+
+/** Rows enough for the text, so the whole note shows without scrolling inside the box. */
+function rowsFor(text: string, min: number, max: number): number {
+  const rows = text
+    .split('\n')
+    .reduce((n, line) => n + Math.max(1, Math.ceil(line.length / 70)), 0);
+  return Math.min(max, Math.max(min, rows + 1));
+}
+
+const PREVIEW_TAGS = [
+  ...['p', 'br', 'strong', 'em', 'b', 'i', 'ul', 'ol', 'li', 'blockquote', 'code', 'pre', 'hr'],
+  ...['h1', 'h2', 'h3', 'h4', 'h5', 'h6', 'table', 'thead', 'tbody', 'tr', 'th', 'td', 'del'],
+];
+
+/** Markdown to HTML for the preview, then sanitised: the clinician's text may hold anything. */
+export function markdownPreview(text: string): string {
+  const html = marked.parse(text, { async: false, gfm: true, breaks: false });
+  return sanitizeHtml(html, { allowedTags: PREVIEW_TAGS, allowedAttributes: {} });
+}
+
+/** The acid-base map and its words; a drawing it cannot make leaves the draft without it rather than failing. */
+function mapView(f: Findings) {
+  try {
+    // the drawing's own size (680 wide, its labels laid out for it); the key grows one row per gas, up to six
+    const map = acidBaseMap(f, { height: 660 + Math.min(f.previous.length, 5) * 16 });
+    return { svg: map.svg, lines: map.text.split('\n').filter((line) => line.trim() !== '') };
+  } catch (e) {
+    if (e instanceof RangeError) return null;
+    throw e;
+  }
+}
+
+function followUpView(answers: Json, followUp: DraftOptions['followUp']) {
+  const count = earlierGases(answers).length;
+  return {
+    can: count < MAX_PREVIOUS_GASES,
+    count,
+    max: MAX_PREVIOUS_GASES,
+    error: followUp?.error ?? null,
+    value: followUp?.typed ?? '',
+  };
+}
+
+export function draftView(f: Findings, answers: Json, renderer: NoteRenderer, o: DraftOptions) {
+  const { format, edited } = o;
+  const note = renderer.render(f, { format });
+  const text = edited?.note ?? note.text;
+  const handover = edited?.handover ?? note.handover;
+  return {
+    // the one line above the box reads as plain words whatever the box's format
+    format,
+    line: format === 'text' ? note.line : renderer.render(f, { format: 'text' }).line,
+    text,
+    handover,
+    withheld: f.withheld,
+    rows: { text: rowsFor(text, 10, 60), handover: rowsFor(handover, 5, 30) },
+    edited: !!edited,
+    previewHtml: format === 'markdown' ? markdownPreview(text) : null,
+    flags: f.flags.map((flag) => ({
+      severity: flag.severity,
+      label: SEVERITY_LABEL[flag.severity],
+      message: renderer.flagMessage(flag, f),
+    })),
+    map: mapView(f),
+    explain: Object.values(f.explain).map((e) => ({
+      key: e.key,
+      label: e.label,
+      value: valueText(e.value, e.unit, f.units),
+      formula: e.formula,
+      source: e.source,
+      inputs: e.inputs.map((i) => `${i.name} ${valueText(i.value, i.unit, f.units)}`).join('; '),
+    })),
+    followUp: followUpView(answers, o.followUp),
+    fileBack: o.fileBack,
+    autofocus: o.autofocus,
+  };
+}
