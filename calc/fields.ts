@@ -55,6 +55,11 @@ export interface FieldSpec {
   optional?: boolean;
   printed?: readonly Printed[];
   loinc?: readonly Loinc[];
+  /**
+   * Where a number printed without a unit is a believable adult result, by unit (our own limits, common practice):
+   * a reader takes the one unit whose window holds the number, and asks when two do or none the case takes.
+   */
+  typical?: Readonly<Record<string, readonly [number, number]>>;
 }
 
 const MMOL = ['mmol/L', 'mmol/l'];
@@ -78,6 +83,7 @@ export const FIELDS = [
   },
   {
     path: 'gas.pco2', label: 'PaCO2', unit: 'mmHg', quantity: 'pressure', range: [5, 200], decimals: 0, step: 'gas',
+    typical: { mmHg: [10, 150], kPa: [1.3, 20] },
     printed: [
       P('[pP]\\s?[aAvV]?\\s?[cC][oO]2'),
       P('carbon\\s+dioxide,?\\s+partial\\s+pressure|partial\\s+pressure\\s+of\\s+carbon\\s+dioxide', { anyCase: true }),
@@ -91,6 +97,7 @@ export const FIELDS = [
   },
   {
     path: 'gas.po2', label: 'PaO2', unit: 'mmHg', quantity: 'pressure', range: [10, 760], decimals: 0, step: 'gas',
+    typical: { mmHg: [15, 700], kPa: [2, 93] },
     printed: [P('[pP]\\s?[aAvV]?\\s?[oO]2')],
     loinc: [
       L('2703-7', 'arterial', 'Oxygen [Partial pressure] in Arterial blood'), // checked: DICOM CID 3524, GECCO PaO2 profile, VSAC ...1248.94
@@ -157,6 +164,7 @@ export const FIELDS = [
   {
     // common practice
     path: 'gas.hb', label: 'Hb', unit: 'g/dL', quantity: 'hb', range: [2, 25], decimals: 1, step: 'gas', optional: true,
+    typical: { 'g/dL': [3, 25], 'g/L': [30, 250], 'mmol/L': [1.8, 15.5] },
     printed: [P('c?t?Hb|THb|Hgb|HGB|HB'), P('ha?emoglobin(?:\\s+total)?|total\\s+ha?emoglobin', { anyCase: true })],
     loinc: [
       L('718-7', 'blood', 'Hemoglobin [Mass/volume] in Blood'), // checked: VSAC Hemoglobin lab test 2.16.840.1.113762.1.4.1248.219, HL7 ObservationDefinition example
@@ -196,11 +204,13 @@ export const FIELDS = [
   },
   {
     path: 'chemistry.albumin', label: 'Albumin', unit: 'g/dL', quantity: 'albumin', range: [0.5, 7], decimals: 1, step: 'chemistry',
+    typical: { 'g/dL': [0.8, 6.5], 'g/L': [8, 65] },
     printed: [P('alb(?:umin)?', { anyCase: true })],
     loinc: [L('1751-7', 'serum', 'Albumin [Mass/volume] in Serum or Plasma')], // checked: HL7 ObservationDefinition example
   },
   {
     path: 'chemistry.glucose', label: 'Glucose', unit: 'mmol/L', quantity: 'glucose', range: [0, 120], decimals: 1, step: 'chemistry',
+    typical: { 'mmol/L': [0.5, 60], 'mg/dL': [20, 1500] },
     printed: [P('c?Glu(?:c(?:ose)?)?', { anyCase: true })],
     loinc: [
       L('2345-7', 'serum', 'Glucose [Mass/volume] in Serum or Plasma', 'mg/dL'), // checked: HL7 ObservationDefinition example, VSAC 2.16.840.1.113762.1.4.1160.5
@@ -212,6 +222,7 @@ export const FIELDS = [
   {
     // common practice (BUN 0-280 mg/dL)
     path: 'chemistry.urea', label: 'Urea', ask: 'Urea or BUN', unit: 'mmol/L', quantity: 'urea', range: [0, 100], decimals: 1, step: 'chemistry',
+    typical: { 'mmol/L': [0.5, 60], 'mg/dL': [3, 360] },
     printed: [P('BUN|(?:blood\\s+)?urea\\s+nitrogen', { anyCase: true, variant: 'bun' }), P('urea', { anyCase: true })],
     loinc: [
       L('3094-0', 'serum', 'Urea nitrogen [Mass/volume] in Serum or Plasma', 'bun-mg/dL'), // checked: VSAC BUN lab test 2.16.840.1.113762.1.4.1248.218
@@ -222,6 +233,7 @@ export const FIELDS = [
   {
     // common practice
     path: 'chemistry.creatinine', label: 'Creatinine', unit: 'µmol/L', quantity: 'creatinine', range: [10, 3000], decimals: 0,
+    typical: { 'mg/dL': [0.15, 25], 'umol/L': [15, 2500] },
     step: 'chemistry',
     printed: [P('c?crea(?:t(?:inine)?)?', { anyCase: true }), P('Cr')],
     loinc: [
@@ -243,6 +255,7 @@ export const FIELDS = [
   {
     // common practice
     path: 'chemistry.ionisedCalcium', label: 'Ionised calcium', unit: 'mmol/L', range: [0.2, 3], decimals: 2, charge: 2, ucum: MMOL,
+    typical: { 'mmol/L': [0.4, 2], 'mg/dL': [2.5, 10] },
     loinc: [
       L('1994-3', 'blood', 'Calcium.ionized [Moles/volume] in Blood'), // checked: HL7 PDDI CDS calcium value set
       L('1995-0', 'serum', 'Calcium.ionized [Moles/volume] in Serum or Plasma'), // checked: HL7 PDDI CDS calcium value set
@@ -254,6 +267,7 @@ export const FIELDS = [
   {
     // common practice
     path: 'chemistry.magnesium', label: 'Magnesium', unit: 'mmol/L', range: [0.1, 5], decimals: 2, charge: 2, ucum: MMOL,
+    typical: { 'mmol/L': [0.2, 2.5], 'mg/dL': [0.5, 6] },
     // "Mg" as written, never before a slash (mg/dL is a unit)
     printed: [P('c?Mg(?:2\\+|\\+\\+)?(?!\\s*\\/)'), P('magnesium', { anyCase: true })],
     loinc: [L('2601-3', 'serum', 'Magnesium [Moles/volume] in Serum or Plasma')], // checked: HL7 PDDI CDS magnesium value set
@@ -261,6 +275,7 @@ export const FIELDS = [
   {
     // common practice; phosphate is a mix of valences, so mEq/L is not taken
     path: 'chemistry.phosphate', label: 'Phosphate', unit: 'mmol/L', range: [0.1, 6], decimals: 2, ucum: MMOL,
+    typical: { 'mmol/L': [0.2, 4], 'mg/dL': [0.6, 12] },
     printed: [P('PO4|phos(?:phate)?|phosphorus|inorganic\\s+phosph(?:ate|orus)', { anyCase: true })],
     // checked: a published national LOINC code list and a laboratory-to-LOINC mapping (no HL7 value set found)
     loinc: [L('14879-1', 'serum', 'Phosphate [Moles/volume] in Serum or Plasma')],

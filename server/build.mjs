@@ -17,7 +17,7 @@ import { fileURLToPath } from 'node:url';
 const root = join(dirname(fileURLToPath(import.meta.url)), '..');
 const dist = join(root, 'dist');
 const tsc = join(root, 'node_modules', 'typescript', 'bin', 'tsc');
-const ASSET = /\.(njk|css|js|svg|png|ico|txt)$/;
+const ASSET = /\.(njk|css|js|json|svg|png|ico|txt)$/;
 
 function copyAssets(dir) {
   for (const name of readdirSync(dir)) {

@@ -85,7 +85,7 @@ describe('ventilated patient, mmHg (case 1)', () => {
     expect(text).toContain(
       `${round(24 + (48 - 40) / 10 - 2, 1)}-${round(24 + (48 - 40) / 10 + 2, 1)} mmol/L`,
     );
-    expect(text).toContain(`[H+] ${round(hPlus(g.ph))} nmol/L`);
+    expect(text).toContain(`[H+] ${round(hPlus(g.ph as number))} nmol/L`);
     expect(text).toContain('PaCO2 61 to 48 mmHg');
     expect(text).toMatch(/Primary process: acute respiratory acidosis/);
   });

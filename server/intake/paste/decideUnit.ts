@@ -4,6 +4,7 @@
 // (calc's inRange). Whatever is not clear is a question (doubts.ts), never a guess.
 import {
   FIELD,
+  FIELDS,
   inRange,
   readUnit,
   resolveUnits,
@@ -40,31 +41,35 @@ export interface Window {
   notTaken?: true;
 }
 
-// Windows in which a bare number is a believable adult result in that unit. They only decide which unit a number
-// without one is in; a number inside two windows, or only in a unit the case does not take, is asked about (our own
-// limits, common practice).
-export const WINDOWS: Partial<Record<FieldPath, Record<string, Window>>> = {
-  'gas.pco2': { mmHg: { min: 10, max: 150 }, kPa: { min: 1.3, max: 20 } },
-  'gas.po2': { mmHg: { min: 15, max: 700 }, kPa: { min: 2, max: 93 } },
-  'chemistry.albumin': { 'g/dL': { min: 0.8, max: 6.5 }, 'g/L': { min: 8, max: 65 } },
-  // Hb in mmol/L (Hb monomer, about 16.1 g/mmol; from memory) is used in some countries and is asked about
-  'gas.hb': {
-    'g/dL': { min: 3, max: 25 },
-    'g/L': { min: 30, max: 250 },
-    'mmol/L': { min: 1.8, max: 15.5 },
-  },
-  'chemistry.glucose': { 'mmol/L': { min: 0.5, max: 60 }, 'mg/dL': { min: 20, max: 1500 } },
-  'chemistry.creatinine': { 'mg/dL': { min: 0.15, max: 25 }, 'umol/L': { min: 15, max: 2500 } },
-  // "Urea" in mg/dL may be urea itself or urea nitrogen (BUN): asked about, never taken as one or the other
-  'chemistry.urea': {
-    'mmol/L': { min: 0.5, max: 60 },
-    'mg/dL': { min: 3, max: 360, notTaken: true },
-  },
-  // the divalent ions and phosphate are also reported in mg/dL, which the case does not take
-  'chemistry.ionisedCalcium': { 'mmol/L': { min: 0.4, max: 2 }, 'mg/dL': { min: 2.5, max: 10 } },
-  'chemistry.magnesium': { 'mmol/L': { min: 0.2, max: 2.5 }, 'mg/dL': { min: 0.5, max: 6 } },
-  'chemistry.phosphate': { 'mmol/L': { min: 0.2, max: 4 }, 'mg/dL': { min: 0.6, max: 12 } },
-};
+// "Urea" in mg/dL may be urea itself or urea nitrogen (BUN): a bare number there is asked about, never taken as one
+// or the other (common practice). A window in a unit the case does not take for the field (Hb in mmol/L, the divalent
+// ions and phosphate in mg/dL) is asked about too, since readUnit refuses it.
+const ASKED_BARE: Partial<Record<FieldPath, string>> = { 'chemistry.urea': 'mg/dL' };
+
+/**
+ * Windows in which a bare number is a believable adult result in that unit (the table's `typical`): they only decide
+ * which unit a number without one is in; a number inside two windows, or only in a unit the case does not take, is
+ * asked about.
+ */
+export const WINDOWS: Partial<Record<FieldPath, Record<string, Window>>> = Object.fromEntries(
+  FIELDS.flatMap((f: FieldSpec) =>
+    f.typical
+      ? [
+          [
+            f.path,
+            Object.fromEntries(
+              Object.entries(f.typical).map(([unit, [min, max]]) => [
+                unit,
+                ASKED_BARE[f.path as FieldPath] === unit
+                  ? { min, max, notTaken: true }
+                  : { min, max },
+              ]),
+            ),
+          ],
+        ]
+      : [],
+  ),
+);
 
 /** A label that names its unit: urea nitrogen (BUN) is reported in mg/dL (common practice). */
 const IMPLIED: Partial<Record<Variant, UnitToken>> = { bun: 'mg/dL' };
