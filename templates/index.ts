@@ -11,8 +11,13 @@ import { flagView } from './flagView.ts';
 import { buildView, type NoteFormat } from './view.ts';
 
 export interface Note {
+  /** the one-line interpretation */
   line: string;
+  /** the chart-ready note: the line, assessment and plan, and the cautions specific to this case */
   text: string;
+  /** the full reasoning: interpretation, oxygenation, ventilation, plan, cautions */
+  full: string;
+  /** the handover block */
   handover: string;
   format: 'text' | 'markdown';
 }
@@ -145,9 +150,12 @@ export function createNoteRenderer(options: { templateDir?: string | null } = {}
         throw new TypeError(`Unknown note format "${String(format)}": use "text" or "markdown"`);
       const v = buildView(findings, format);
       const oneLine = paragraph(run(line, { v }));
+      const full = tidy(run(note, { v, line: oneLine }));
       return {
         line: oneLine,
-        text: tidy(run(note, { v, line: oneLine })),
+        // the short chart-ready note is still to be written: until then the chart-ready text is the full note
+        text: full,
+        full,
         handover: tidy(run(handover, { v })),
         format,
       };
