@@ -56,6 +56,7 @@ describe('the checks themselves can fail', () => {
       format: 'text',
       line: 'ABG pH 7.31, PaCO2 48: undefined',
       text: 'INTERPRETATION\n\nOXYGENATION\n- \nA-a gradient 153.',
+      full: 'INTERPRETATION\n\nOXYGENATION\n- \nA-a gradient 153.',
       handover: 'Result:',
     };
     const problems = noteProblems(bad).join('\n');
