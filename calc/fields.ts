@@ -363,13 +363,17 @@ export type KeysOf<G extends string> = {
 }[FieldPath];
 
 /** The fields directly in a group, in table order. */
-export const fieldsOf = (group: string): FieldSpec[] =>
-  (FIELDS as readonly FieldSpec[]).filter(
-    (f) => f.path.startsWith(`${group}.`) && !f.path.slice(group.length + 1).includes('.'),
-  );
+export const fieldsOf = (group: string): readonly FieldSpec[] => GROUPS.get(group) ?? [];
 
 /** The last part of a field's path: its key in its group. */
 export const keyOf = (f: FieldSpec): string => f.path.slice(f.path.lastIndexOf('.') + 1);
+
+// each group's fields, listed once: the table does not change while the program runs
+const GROUPS = new Map<string, FieldSpec[]>();
+for (const f of FIELDS as readonly FieldSpec[]) {
+  const group = f.path.slice(0, f.path.lastIndexOf('.'));
+  GROUPS.set(group, [...(GROUPS.get(group) ?? []), f]);
+}
 
 /** The fields an earlier gas may carry besides its gas: the settings it was taken on. */
 export const PREVIOUS_SETTINGS = [

@@ -72,13 +72,13 @@ export type Derived = Record<Exclude<DerivedNumber, 'hPlus'>, N> & {
   expectedHco3: Band | null;
 };
 
-export const emptyDerived = (hPlus: number): Derived =>
-  ({
-    ...Object.fromEntries(DERIVED_NUMBERS.map((key) => [key, null])),
-    hPlus,
-    expectedPco2: null,
-    expectedHco3: null,
-  }) as Derived;
+const NOTHING_DERIVED = Object.freeze({
+  ...Object.fromEntries(DERIVED_NUMBERS.map((key) => [key, null])),
+  expectedPco2: null,
+  expectedHco3: null,
+});
+
+export const emptyDerived = (hPlus: number): Derived => ({ ...NOTHING_DERIVED, hPlus }) as Derived;
 
 /** What the parts of a reading write into: the derived values and how each was reached. */
 export interface Book {

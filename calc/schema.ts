@@ -196,7 +196,7 @@ function checkGas(gas: ParsedCase['gas'], prefix: string, errors: FieldError[]) 
     });
 }
 
-const GAS_FIELDS: FieldSpec[] = fieldsOf('gas');
+const GAS_FIELDS = fieldsOf('gas');
 const EARLIER_FIELDS: FieldSpec[] = [...GAS_FIELDS, ...PREVIOUS_SETTINGS.map((p) => FIELD[p])];
 
 /** Every plausibility check on a case of the right shape. */

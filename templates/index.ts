@@ -118,6 +118,8 @@ export function createNoteRenderer(options: { templateDir?: string | null } = {}
   });
   env.addFilter('para', paragraph);
   env.addFilter('sentence', sentenceCase);
+  // nunjucks' own trim is a regular expression whose end anchor rescans long text; the native trim is the same rule
+  env.addFilter('trim', (value: unknown) => String(value ?? '').trim());
   env.addFilter('known', (items: unknown) =>
     Array.isArray(items)
       ? items.filter((x) => x !== null && x !== undefined && String(x).trim() !== '')
