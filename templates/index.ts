@@ -32,21 +32,42 @@ export interface NoteRenderer {
 export const DEFAULT_TEMPLATE_DIR = path.dirname(fileURLToPath(import.meta.url));
 
 /** The templates the renderer calls by name; the others are imported or included by these. */
-const ENTRY = { line: 'line.njk', note: 'note.njk', handover: 'handover.njk' } as const;
+const ENTRY = {
+  line: 'line.njk',
+  text: 'short.njk',
+  full: 'note.njk',
+  handover: 'handover.njk',
+} as const;
 const FLAG_MESSAGE_SOURCE = '{% import "flag.njk" as fl %}{{ fl.message(flag) }}';
 
 /**
  * Whitespace inside a paragraph becomes single spaces; no space is left before , . ; : ) or after (, and a
- * sentence that a template tag ran into the next one gets its space back.
+ * sentence that a template tag ran into the next one gets its space back. One pass over the text (every bullet and
+ * line of every note goes through here); the test beside it holds it to the same rules written as regular
+ * expressions.
  */
 export function paragraph(value: unknown): string {
-  return String(value ?? '')
-    .replace(/\s+/g, ' ')
-    .replace(/ ([,.;:)])/g, '$1')
-    .replace(/\( /g, '(')
-    .replace(/([.;:])(?=[A-Z])/g, '$1 ')
-    .trim();
+  const text = String(value ?? '');
+  let out = '';
+  let space = false;
+  for (let i = 0; i < text.length; i++) {
+    const ch = text[i]!;
+    const code = ch.charCodeAt(0);
+    if (code <= 32 ? code === 32 || (code >= 9 && code <= 13) : code > 127 && WHITE.test(ch)) {
+      space = out.length > 0;
+      continue;
+    }
+    const last = out[out.length - 1];
+    if (space && !CLOSING.includes(ch) && last !== '(') out += ' ';
+    else if (!space && code >= 65 && code <= 90 && (last === '.' || last === ';' || last === ':'))
+      out += ' ';
+    space = false;
+    out += ch;
+  }
+  return out;
 }
+const WHITE = /\s/;
+const CLOSING = ',.;:)';
 
 /** First letter up, the rest untouched (unlike nunjucks' capitalize, which would spoil "PaCO2"). */
 export function sentenceCase(value: unknown): string {
@@ -137,7 +158,8 @@ export function createNoteRenderer(options: { templateDir?: string | null } = {}
   // read and compile everything now, the department's files and the defaults alike
   for (const dir of searchPaths) for (const name of templateFiles(dir)) env.getTemplate(name, true);
   const line = env.getTemplate(ENTRY.line, true);
-  const note = env.getTemplate(ENTRY.note, true);
+  const text = env.getTemplate(ENTRY.text, true);
+  const note = env.getTemplate(ENTRY.full, true);
   const handover = env.getTemplate(ENTRY.handover, true);
   const flagMessage = new nunjucks.Template(FLAG_MESSAGE_SOURCE, env, 'flag-message', true);
 
@@ -152,12 +174,10 @@ export function createNoteRenderer(options: { templateDir?: string | null } = {}
         throw new TypeError(`Unknown note format "${String(format)}": use "text" or "markdown"`);
       const v = buildView(findings, format);
       const oneLine = paragraph(run(line, { v }));
-      const full = tidy(run(note, { v, line: oneLine }));
       return {
         line: oneLine,
-        // the short chart-ready note is still to be written: until then the chart-ready text is the full note
-        text: full,
-        full,
+        text: tidy(run(text, { v, line: oneLine })),
+        full: tidy(run(note, { v, line: oneLine })),
         handover: tidy(run(handover, { v })),
         format,
       };
