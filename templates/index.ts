@@ -48,26 +48,39 @@ const FLAG_MESSAGE_SOURCE = '{% import "flag.njk" as fl %}{{ fl.message(flag) }}
  */
 export function paragraph(value: unknown): string {
   const text = String(value ?? '');
-  let out = '';
-  let space = false;
+  const parts: string[] = [];
+  let last = ''; // the last character written
+  let space = false; // whitespace seen since it
+  let start = 0; // the start of the run of characters not yet written
   for (let i = 0; i < text.length; i++) {
-    const ch = text[i]!;
-    const code = ch.charCodeAt(0);
-    if (code <= 32 ? code === 32 || (code >= 9 && code <= 13) : code > 127 && WHITE.test(ch)) {
-      space = out.length > 0;
+    const code = text.charCodeAt(i);
+    const white =
+      code <= 32 ? code === 32 || (code >= 9 && code <= 13) : code > 127 && WHITE.test(text[i]!);
+    if (white) {
+      if (start < i) parts.push(text.slice(start, i));
+      start = i + 1;
+      space = last !== '';
       continue;
     }
-    const last = out[out.length - 1];
-    if (space && !CLOSING.includes(ch) && last !== '(') out += ' ';
-    else if (!space && code >= 65 && code <= 90 && (last === '.' || last === ';' || last === ':'))
-      out += ' ';
+    const ch = text[i]!;
+    if (space) {
+      if (!CLOSING.includes(ch) && last !== '(') parts.push(' ');
+    } else if (code >= 65 && code <= 90 && (last === '.' || last === ';' || last === ':')) {
+      if (start < i) parts.push(text.slice(start, i));
+      start = i;
+      parts.push(' ');
+    }
     space = false;
-    out += ch;
+    last = ch;
   }
-  return out;
+  if (start < text.length) parts.push(text.slice(start));
+  return parts.join('');
 }
 const WHITE = /\s/;
 const CLOSING = ',.;:)';
+
+/** What nunjucks gives a filter as `this`: the render's context. */
+type FilterThis = { lookup(name: string): { md?: boolean } | undefined };
 
 /** First letter up, the rest untouched (unlike nunjucks' capitalize, which would spoil "PaCO2"). */
 export function sentenceCase(value: unknown): string {
@@ -138,6 +151,23 @@ export function createNoteRenderer(options: { templateDir?: string | null } = {}
     lstripBlocks: true,
   });
   env.addFilter('para', paragraph);
+  // the layout blocks of format.njk as filters: {% filter bullet %}...{% endfilter %} prints "- text" or nothing
+  env.addFilter('bullet', (body: unknown) => {
+    const text = paragraph(body);
+    return text ? `- ${text}\n` : '';
+  });
+  env.addFilter('paragraph', (body: unknown) => {
+    const text = paragraph(body);
+    return text ? `${text}\n\n` : '';
+  });
+  env.addFilter('section', function (this: FilterThis, body: unknown, title: string) {
+    const text = String(body ?? '').trim();
+    return text ? `${this.lookup('v')?.md ? `## ${title}` : title.toUpperCase()}\n${text}\n\n` : '';
+  });
+  env.addFilter('subsection', function (this: FilterThis, body: unknown, title: string) {
+    const text = String(body ?? '').trim();
+    return text ? `${this.lookup('v')?.md ? `### ${title}` : `${title}:`}\n${text}\n\n` : '';
+  });
   env.addFilter('sentence', sentenceCase);
   // nunjucks' own trim is a regular expression whose end anchor rescans long text; the native trim is the same rule
   env.addFilter('trim', (value: unknown) => String(value ?? '').trim());
