@@ -1,0 +1,54 @@
+// Overload: when the event loop lags, a request waits behind every request already queued. Node's own
+// monitorEventLoopDelay measures that lag; while its mean over the last sample is above the limit, a request is
+// answered at once with 503 and Retry-After instead of queueing for seconds. /healthz is always answered, so that
+// a liveness probe does not restart a process that is only busy.
+import type { MiddlewareHandler } from 'hono';
+import { monitorEventLoopDelay } from 'node:perf_hooks';
+
+/** how often the lag is read, in ms: short enough to react within a fraction of a second */
+const SAMPLE_MS = 250;
+/** the histogram's resolution in ms, subtracted from what it reads (it is the timer's own period) */
+const RESOLUTION_MS = 10;
+
+export interface LoopWatch {
+  /** the event loop's mean delay in the last sample is above the limit */
+  lagging(): boolean;
+  stop(): void;
+}
+
+export function watchEventLoop(limitMs: number): LoopWatch {
+  const histogram = monitorEventLoopDelay({ resolution: RESOLUTION_MS });
+  histogram.enable();
+  let lagging = false;
+  const timer = setInterval(() => {
+    const meanMs = histogram.count ? histogram.mean / 1e6 - RESOLUTION_MS : 0;
+    lagging = meanMs > limitMs;
+    histogram.reset();
+  }, SAMPLE_MS);
+  timer.unref();
+  return {
+    lagging: () => lagging,
+    stop: () => {
+      clearInterval(timer);
+      histogram.disable();
+    },
+  };
+}
+
+/** Seconds a refused client is asked to wait (Retry-After). */
+export const RETRY_AFTER_SECONDS = 1;
+
+/** 503 with Retry-After at once while busy() says so; /healthz always goes on. */
+export const shedWhenBusy =
+  (busy: () => boolean): MiddlewareHandler =>
+  async (c, next) => {
+    if (!busy() || c.req.path === '/healthz') return next();
+    return c.json(
+      {
+        ok: false,
+        errors: [{ path: '(server)', message: 'The server is busy: try again in a moment' }],
+      },
+      503,
+      { 'retry-after': String(RETRY_AFTER_SECONDS), 'cache-control': 'no-store' },
+    );
+  };
