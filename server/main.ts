@@ -47,6 +47,8 @@ export function startServer(env: NodeJS.ProcessEnv = process.env) {
       serverOptions: {
         headersTimeout: limits.headersTimeoutMs,
         requestTimeout: limits.requestTimeoutMs,
+        // how often Node checks those two timeouts (its default, 30 s, would let a slow client stay 40 s)
+        connectionsCheckingInterval: 1000,
       },
     },
     (info) => {
