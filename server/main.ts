@@ -6,7 +6,7 @@ import cluster from 'node:cluster';
 import type { Server } from 'node:http';
 import { createApp } from './app.ts';
 import { LOOPBACK, readConfig } from './config.ts';
-import { watchEventLoop } from './overload.ts';
+import { watchEventLoop, type LoopWatch } from './overload.ts';
 import { gracefulStop } from './shutdown.ts';
 
 export function startServer(env: NodeJS.ProcessEnv = process.env) {
@@ -27,7 +27,8 @@ export function startServer(env: NodeJS.ProcessEnv = process.env) {
   }
   if (!cluster.isWorker || cluster.worker?.id === 1)
     for (const message of config.messages) console.log(message);
-  const loop = watchEventLoop(limits.overloadLagMs);
+  // watched from the moment it listens: the start itself (compiling templates) is one long turn, not overload
+  let loop: LoopWatch | null = null;
   const app = createApp({
     renderer: config.renderer,
     launch: config.launch,
@@ -36,7 +37,7 @@ export function startServer(env: NodeJS.ProcessEnv = process.env) {
     allowedHosts: config.allowedHosts,
     hsts: config.hsts,
     cspReports: config.cspReports,
-    busy: loop.lagging,
+    busy: () => loop?.lagging() ?? false,
     log: config.requestLog ? (line) => console.log(line) : undefined,
   });
   const server = serve(
@@ -52,6 +53,7 @@ export function startServer(env: NodeJS.ProcessEnv = process.env) {
       },
     },
     (info) => {
+      loop = watchEventLoop(limits.overloadLagMs);
       console.log(
         `Gasline listening on http://${hostname.includes(':') ? `[${hostname}]` : hostname}:${info.port}`,
       );
@@ -66,7 +68,7 @@ export function startServer(env: NodeJS.ProcessEnv = process.env) {
       `Gasline: ${signal}, finishing the requests in progress (at most ${limits.shutdownMs / 1000} s)`,
     );
     stopper.stop(() => {
-      loop.stop();
+      loop?.stop();
       process.exit(0);
     });
   };

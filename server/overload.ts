@@ -1,12 +1,15 @@
 // Overload: when the event loop lags, a request waits behind every request already queued. Node's own
-// monitorEventLoopDelay measures that lag; while its mean over the last sample is above the limit, a request is
-// answered at once with 503 and Retry-After instead of queueing for seconds. /healthz is always answered, so that
-// a liveness probe does not restart a process that is only busy.
+// monitorEventLoopDelay measures that lag; once its mean has been above the limit in SUSTAINED samples in a row
+// (one slow request, a cold start's first renders, a collection pause, are a single long turn, not a queue), a
+// request is answered at once with 503 and Retry-After instead of queueing for seconds, until a sample is below.
+// /healthz is always answered, so that a liveness probe does not restart a process that is only busy.
 import type { MiddlewareHandler } from 'hono';
 import { monitorEventLoopDelay } from 'node:perf_hooks';
 
 /** how often the lag is read, in ms: short enough to react within a fraction of a second */
 const SAMPLE_MS = 250;
+/** samples in a row above the limit before requests are refused: about three quarters of a second of lag */
+const SUSTAINED = 3;
 /** the histogram's resolution in ms, subtracted from what it reads (it is the timer's own period) */
 const RESOLUTION_MS = 10;
 
@@ -24,12 +27,14 @@ export function watchEventLoop(limitMs: number): LoopWatch {
   // that matters under load, would go unrecorded): each sample's mean comes from the running count and mean
   let count = 0;
   let total = 0;
+  let above = 0;
   const timer = setInterval(() => {
     const nowCount = histogram.count;
     const nowTotal = histogram.mean * nowCount;
     if (nowCount > count) {
       const meanMs = (nowTotal - total) / (nowCount - count) / 1e6 - RESOLUTION_MS;
-      lagging = meanMs > limitMs;
+      above = meanMs > limitMs ? above + 1 : 0;
+      lagging = above >= SUSTAINED;
     }
     count = nowCount;
     total = nowTotal;

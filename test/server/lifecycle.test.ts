@@ -10,7 +10,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it, vi } from 'vitest';
 import { START_MS, freePort, listening, start } from './processHarness.ts';
-import { startLoad } from './load.ts';
+import { startLoad } from '../../bench/load.ts';
 
 vi.setConfig({ testTimeout: 4 * START_MS });
 const CONNECTIONS = 20;
