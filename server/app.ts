@@ -35,6 +35,8 @@ export interface AppOptions {
   cspReports?: boolean;
   /** true while the process is too busy to answer in time: requests get 503 at once (server/overload.ts) */
   busy?: () => boolean;
+  /** requests in progress at most in this process; more are answered 503 at once (MAX_IN_FLIGHT) */
+  maxInFlight?: number;
 }
 
 export function createApp(options: AppOptions = {}): Hono {
@@ -44,7 +46,8 @@ export function createApp(options: AppOptions = {}): Hono {
   const log = options.log;
 
   if (log) app.use(requestLog(log));
-  if (options.busy) app.use(shedWhenBusy(options.busy));
+  if (options.busy || options.maxInFlight)
+    app.use(shedWhenBusy(options.busy ?? (() => false), options.maxInFlight));
   if (options.allowedHosts) app.use(hostCheck(options.allowedHosts));
   // no answer of ours is kept by a browser or a proxy unless it says otherwise (pages, static files)
   app.use(async (c, next) => {

@@ -14,6 +14,8 @@ export interface Limits {
   maxConnections: number;
   /** event-loop lag above which requests are refused with 503 (OVERLOAD_LAG_MS) */
   overloadLagMs: number;
+  /** requests in progress at most in one process; more are refused with 503 (MAX_IN_FLIGHT) */
+  maxInFlight: number;
   /** the longest a stop waits for requests in progress before it closes what is left (SHUTDOWN_SECONDS) */
   shutdownMs: number;
 }
@@ -77,8 +79,17 @@ export function readConfig(
   const cspReports = onOff(env, 'CSP_REPORTS', false);
   const maxConnections = whole(env, 'MAX_CONNECTIONS', 2000, 10, 100_000);
   const overloadLagMs = whole(env, 'OVERLOAD_LAG_MS', 200, 20, 10_000);
+  const maxInFlight = whole(env, 'MAX_IN_FLIGHT', 64, 1, 100_000);
   const shutdownSeconds = whole(env, 'SHUTDOWN_SECONDS', 10, 1, 10);
-  for (const value of [port, hsts, cspReports, maxConnections, overloadLagMs, shutdownSeconds])
+  for (const value of [
+    port,
+    hsts,
+    cspReports,
+    maxConnections,
+    overloadLagMs,
+    maxInFlight,
+    shutdownSeconds,
+  ])
     if (typeof value === 'string') return { ok: false, error: value };
 
   const settings = readSettings(env, options);
@@ -133,6 +144,7 @@ export function readConfig(
         requestTimeoutMs: REQUEST_TIMEOUT_MS,
         maxConnections: maxConnections as number,
         overloadLagMs: overloadLagMs as number,
+        maxInFlight: maxInFlight as number,
         shutdownMs: (shutdownSeconds as number) * 1000,
       },
       messages,

@@ -2,8 +2,10 @@
 // monitorEventLoopDelay measures that lag; once its mean has been above the limit in SUSTAINED samples in a row
 // (one slow request, a cold start's first renders, a collection pause, are a single long turn, not a queue), a
 // request is answered at once with 503 and Retry-After instead of queueing for seconds, until a sample is below.
-// /healthz is always answered, so that a liveness probe does not restart a process that is only busy.
-import type { MiddlewareHandler } from 'hono';
+// A cap on the requests in progress (MAX_IN_FLIGHT) refuses a burst the same way as it arrives, before its lag
+// can be measured. /healthz is always answered, so that a liveness probe does not restart a process that is only
+// busy.
+import type { Context, MiddlewareHandler } from 'hono';
 import { monitorEventLoopDelay } from 'node:perf_hooks';
 
 /** how often the lag is read, in ms: short enough to react within a fraction of a second */
@@ -52,17 +54,31 @@ export function watchEventLoop(limitMs: number): LoopWatch {
 /** Seconds a refused client is asked to wait (Retry-After). */
 export const RETRY_AFTER_SECONDS = 1;
 
-/** 503 with Retry-After at once while busy() says so; /healthz always goes on. */
-export const shedWhenBusy =
-  (busy: () => boolean): MiddlewareHandler =>
-  async (c, next) => {
-    if (!busy() || c.req.path === '/healthz') return next();
-    return c.json(
-      {
-        ok: false,
-        errors: [{ path: '(server)', message: 'The server is busy: try again in a moment' }],
-      },
-      503,
-      { 'retry-after': String(RETRY_AFTER_SECONDS), 'cache-control': 'no-store' },
-    );
+const busyAnswer = (c: Context) =>
+  c.json(
+    {
+      ok: false,
+      errors: [{ path: '(server)', message: 'The server is busy: try again in a moment' }],
+    },
+    503,
+    { 'retry-after': String(RETRY_AFTER_SECONDS), 'cache-control': 'no-store' },
+  );
+
+/**
+ * 503 with Retry-After at once while busy() says so, or while maxInFlight requests are already in progress in
+ * this process (a burst is refused as it arrives, before the lag it would cause can be measured); /healthz always
+ * goes on.
+ */
+export function shedWhenBusy(busy: () => boolean, maxInFlight = Infinity): MiddlewareHandler {
+  let inFlight = 0;
+  return async (c, next) => {
+    if (c.req.path === '/healthz') return next();
+    if (busy() || inFlight >= maxInFlight) return busyAnswer(c);
+    inFlight++;
+    try {
+      await next();
+    } finally {
+      inFlight--;
+    }
   };
+}

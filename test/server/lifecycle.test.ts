@@ -34,8 +34,9 @@ describe('SIGTERM under load', () => {
       const tally = await load.finish();
       expect(code).toBe(0);
       expect(tally.lost, JSON.stringify(tally)).toBe(0);
-      // every request sent was either answered or never accepted (a new connection after the stop)
-      expect(tally.answered + tally.refused).toBe(tally.sent);
+      // every request sent was answered, refused (a new connection after the stop), or reset as the listening
+      // socket closed before any server code read it (unaccepted); one unanswered for 10 s is counted, not excused
+      expect(tally.answered + tally.refused + tally.unaccepted + tally.timedOut).toBe(tally.sent);
       expect(tally.answered).toBeGreaterThanOrEqual(200);
       console.log(`SIGTERM under load (${_name}): ${JSON.stringify(tally)}`);
     },

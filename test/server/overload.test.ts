@@ -6,7 +6,8 @@
 import { Socket } from 'node:net';
 import { describe, expect, it, vi } from 'vitest';
 import { createApp } from '../../server/app.ts';
-import { RETRY_AFTER_SECONDS, watchEventLoop } from '../../server/overload.ts';
+import { RETRY_AFTER_SECONDS, shedWhenBusy, watchEventLoop } from '../../server/overload.ts';
+import { Hono } from 'hono';
 import { START_MS, start } from './processHarness.ts';
 
 vi.setConfig({ testTimeout: 3 * START_MS });
@@ -22,6 +23,27 @@ describe('503 with Retry-After while the event loop lags', () => {
     expect((await app.request('/healthz')).status).toBe(200);
     busy = false;
     expect((await app.request('/api/interpret', { method: 'POST' })).status).toBe(415);
+  });
+
+  it('past maxInFlight requests in progress, the next is answered 503 at once, and taken again once one ends', async () => {
+    let release: () => void = () => {};
+    const held = new Promise<void>((resolve) => {
+      release = resolve;
+    });
+    const app = new Hono();
+    app.use(shedWhenBusy(() => false, 2));
+    app.get('/slow', async (c) => {
+      await held;
+      return c.text('done');
+    });
+    const first = app.request('/slow');
+    const second = app.request('/slow');
+    const third = await app.request('/slow');
+    expect(third.status).toBe(503);
+    expect(third.headers.get('retry-after')).toBe(String(RETRY_AFTER_SECONDS));
+    release();
+    expect([(await first).status, (await second).status]).toEqual([200, 200]);
+    expect((await app.request('/slow')).status).toBe(200);
   });
 
   it('the watch says lagging while the loop is held 300 ms at a time, against a 100 ms limit and not a 5 s one', async () => {
