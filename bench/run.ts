@@ -5,6 +5,7 @@ import { execFileSync } from 'node:child_process';
 import { loadavg } from 'node:os';
 import { gzipSync } from 'node:zlib';
 import { BENCH_CASE } from './case.ts';
+import { reportCluster } from './cluster.ts';
 import { API_INTERPRET, HEALTHZ, atRate, draftStep, send, type Route } from './requests.ts';
 import {
   build,
@@ -223,6 +224,7 @@ async function main() {
   } finally {
     await stopServer(server);
   }
+  await reportCluster(command, record, pick(1000, 200), pick(10, 2));
   console.log(`\nload average at the end: ${load()}`);
   const judged = rows.filter((r) => r.pass !== null).length;
   const missed = rows.filter((r) => r.pass === false).length;

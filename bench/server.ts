@@ -56,17 +56,29 @@ export function freePort(): Promise<number> {
 }
 
 /** The server on 127.0.0.1:port without its request log, once it prints "listening" (60 s at most: it may compile). */
-export async function startServer(command: StartCommand, port: number): Promise<ChildProcess> {
+export async function startServer(
+  command: StartCommand,
+  port: number,
+  options: { env?: Record<string, string>; listening?: number } = {},
+): Promise<ChildProcess> {
   const child = spawn(process.execPath, [...command.flags, ...command.entry], {
     cwd: root,
-    env: { ...process.env, PORT: String(port), HOST: '127.0.0.1', REQUEST_LOG: 'off' },
+    env: {
+      ...process.env,
+      PORT: String(port),
+      HOST: '127.0.0.1',
+      REQUEST_LOG: 'off',
+      ...options.env,
+    },
     stdio: ['ignore', 'pipe', 'inherit'],
   });
+  let heard = 0;
   try {
     await new Promise<void>((resolve, reject) => {
       const timer = setTimeout(() => reject(new Error('the server did not start in 60 s')), 60_000);
       child.stdout!.on('data', (chunk: Buffer) => {
-        if (chunk.toString().includes('listening')) {
+        heard += chunk.toString().split('listening').length - 1;
+        if (heard >= (options.listening ?? 1)) {
           clearTimeout(timer);
           resolve();
         }

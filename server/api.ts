@@ -13,7 +13,7 @@ import {
   type ReferencePoint,
 } from '../calc/index.ts';
 import type { NoteRenderer } from '../templates/index.ts';
-import { BODY_LIMIT_BYTES, jsonError } from './errors.ts';
+import { BODY_LIMIT_BYTES, boundedErrors, jsonError } from './errors.ts';
 import { caseFromFhir, type FhirResult } from './intake/index.ts';
 
 export interface ApiDeps {
@@ -129,11 +129,12 @@ async function interpretFhir(c: Context, deps: ApiDeps) {
         message: q.options?.length ? `${q.reason} (one of: ${q.options.join(', ')})` : q.reason,
       })),
     ];
-    return c.json({ ok: false, errors, fhir: fhirReport(fhir) }, 422);
+    return c.json({ ok: false, errors: boundedErrors(errors), fhir: fhirReport(fhir) }, 422);
   }
   const kase = sample ? { ...fhir.case, sample } : fhir.case;
   const result = interpret(kase, deps.interpretOptions);
-  if (!result.ok) return c.json({ ok: false, errors: result.errors, fhir: fhirReport(fhir) }, 422);
+  if (!result.ok)
+    return c.json({ ok: false, errors: boundedErrors(result.errors), fhir: fhirReport(fhir) }, 422);
   return c.json({
     ...interpretResponse(result, deps.renderer, noteFormat(c)),
     fhir: fhirReport(fhir),
@@ -163,12 +164,13 @@ export function apiRoutes(deps: ApiDeps): Hono {
       await next();
     },
     zValidator('json', caseSchema, (result, c) => {
-      if (!result.success) return c.json({ ok: false, errors: toFieldErrors(result.error) }, 422);
+      if (!result.success)
+        return c.json({ ok: false, errors: boundedErrors(toFieldErrors(result.error)) }, 422);
     }),
     (c) => {
       // the schema already passed in the validator; the core still rejects an implausible worked-out value
       const result = interpretParsed(c.req.valid('json'), deps.interpretOptions);
-      if (!result.ok) return c.json({ ok: false, errors: result.errors }, 422);
+      if (!result.ok) return c.json({ ok: false, errors: boundedErrors(result.errors) }, 422);
       return c.json(interpretResponse(result, deps.renderer, noteFormat(c)));
     },
   );

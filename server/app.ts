@@ -1,7 +1,10 @@
 // The application: routes wired to calc/, templates/ and views/, with headers, limits and errors.
 import { Hono, type Context } from 'hono';
 import { HTTPException } from 'hono/http-exception';
-import { originCheck, securityHeaders } from './security.ts';
+import { hostCheck, originCheck, securityHeaders } from './security.ts';
+import { requestLog } from './log.ts';
+import { shedWhenBusy } from './overload.ts';
+import { CSP_REPORT_PATH, cspReportRoute } from './cspReport.ts';
 import { apiRoutes } from './api.ts';
 import { pageRoutes } from './page.ts';
 import { jsonError } from './errors.ts';
@@ -24,6 +27,16 @@ export interface AppOptions {
   launch?: LaunchSettings | null;
   /** origins of the record allowed to embed the page (FRAME_ANCESTORS); none: no framing */
   frameAncestors?: string[];
+  /** host names answered besides localhost and IP addresses (server/security.ts hostCheck); absent: no check */
+  allowedHosts?: string[];
+  /** send Strict-Transport-Security (HSTS=on); off by default, the TLS proxy sends it */
+  hsts?: boolean;
+  /** take CSP violation reports at /csp-report and log their directive (CSP_REPORTS=on) */
+  cspReports?: boolean;
+  /** true while the process is too busy to answer in time: requests get 503 at once (server/overload.ts) */
+  busy?: () => boolean;
+  /** requests in progress at most in this process; more are answered 503 at once (MAX_IN_FLIGHT) */
+  maxInFlight?: number;
 }
 
 export function createApp(options: AppOptions = {}): Hono {
@@ -32,19 +45,25 @@ export function createApp(options: AppOptions = {}): Hono {
   const app = new Hono();
   const log = options.log;
 
-  if (log) {
-    app.use(async (c, next) => {
-      const start = performance.now();
-      await next();
-      log(
-        `${c.req.method} ${c.req.path} ${c.res.status} ${(performance.now() - start).toFixed(1)}ms`,
-      );
-    });
-  }
-
-  app.use(securityHeaders(options.frameAncestors ?? []));
+  if (log) app.use(requestLog(log));
+  if (options.busy || options.maxInFlight)
+    app.use(shedWhenBusy(options.busy ?? (() => false), options.maxInFlight));
+  if (options.allowedHosts) app.use(hostCheck(options.allowedHosts));
+  // no answer of ours is kept by a browser or a proxy unless it says otherwise (pages, static files)
+  app.use(async (c, next) => {
+    await next();
+    if (!c.res.headers.has('cache-control')) c.res.headers.set('cache-control', 'no-store');
+  });
+  app.use(
+    securityHeaders({
+      frameAncestors: options.frameAncestors ?? [],
+      hsts: options.hsts ?? false,
+      reportUri: options.cspReports ? CSP_REPORT_PATH : null,
+    }),
+  );
   app.use(originCheck(options.allowedOrigins ?? []));
 
+  if (options.cspReports) app.route('/', cspReportRoute(options.errorLog ?? console.error));
   app.route('/', apiRoutes({ renderer, interpretOptions: options.interpretOptions }));
   const settings = options.launch ?? null;
   const launchViewFor = settings ? (c: Context) => launchView(settings, c) : undefined;

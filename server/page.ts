@@ -6,6 +6,7 @@ import type { NoteRenderer } from '../templates/index.ts';
 import { BODY_LIMIT_BYTES } from './errors.ts';
 import { mediaType } from './api.ts';
 import { staticRoutes } from './static.ts';
+import { formStrings } from './form.ts';
 import type { InterpretOptions, ParsedCase } from '../calc/index.ts';
 import {
   announceAnswer,
@@ -90,21 +91,10 @@ function problem(c: Context, status: 400 | 413 | 415, message: string) {
   return c.html(renderProblem(message, isHtmx(c)), status, NO_STORE);
 }
 
-/** Form fields as strings; a file or a repeated name is not something these forms send. */
+/** Form fields as strings, read at the edge (server/form.ts); a file or a repeated name is not something these forms send. */
 async function readForm(c: Context): Promise<FormValues | null | 'malformed'> {
   if (!FORM_TYPES.has(mediaType(c))) return null;
-  let body: Awaited<ReturnType<typeof c.req.parseBody>>;
-  try {
-    body = await c.req.parseBody();
-  } catch {
-    // a multipart body without its boundary, or garbage: the client's fault, answered as such
-    return 'malformed';
-  }
-  const out: FormValues = {};
-  for (const [key, value] of Object.entries(body)) {
-    if (typeof value === 'string') out[key] = value;
-  }
-  return out;
+  return formStrings(c);
 }
 
 export function pageRoutes(deps: PageDeps): Hono {

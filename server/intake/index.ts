@@ -7,6 +7,7 @@ export { parseShorthand } from './paste/shorthand.ts';
 export { MAX_PASTE_CHARS } from './paste/types.ts';
 export type { PasteResult, ReadValue, Skipped, Shorthand, UnitSource } from './paste/types.ts';
 export { caseFromFhir } from './fhir/read.ts';
+export { withoutInvisibleDeep } from './invisible.ts';
 export type {
   FhirConversion,
   FhirEarlier,

@@ -7,6 +7,7 @@ import { fingerprint, pasteView } from '../../views/paste.ts';
 import { confirmPaste } from '../../views/pasteConfirm.ts';
 import { renderProblem } from '../../views/render.ts';
 import type { FormValues } from '../../views/steps.ts';
+import { formStrings } from '../form.ts';
 import { clearCookie, readRecord } from './cookies.ts';
 import { draftNote } from './document.ts';
 import { create } from './fhir.ts';
@@ -35,19 +36,13 @@ export function formRoutes(deps: LaunchDeps): Hono {
 
   /** The form and the case it carried, or the page that explains why not. */
   const readForm = async (c: Context) => {
-    let body: Record<string, unknown>;
-    try {
-      body = await c.req.parseBody();
-    } catch {
+    const form = await formStrings(c);
+    if (form === 'malformed')
       return c.html(
         renderProblem('The form could not be read: send it again from the page.', isHtmx(c)),
         400,
         NO_STORE,
       );
-    }
-    const form: FormValues = {};
-    for (const [key, value] of Object.entries(body))
-      if (typeof value === 'string') form[key] = value;
     const read = readState(form);
     if (!read.ok) return c.html(renderProblem(read.message, isHtmx(c)), 400, NO_STORE);
     return { form, state: read.state };

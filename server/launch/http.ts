@@ -1,5 +1,6 @@
 // Talking to the record's servers: a time limit on every request, a size limit on every answer, and every failure
 // turned into a LaunchProblem whose words a clinician can act on. No message carries a token, a code or a value.
+import { withoutInvisibleDeep } from '../intake/index.ts';
 
 export type ProblemKind =
   | 'bad-request'
@@ -68,7 +69,8 @@ export async function readJson(response: Response, what: string): Promise<unknow
       `${capital(WHAT[what] ?? what)} sent too large an answer.`,
     );
   try {
-    return JSON.parse(text);
+    // the record's strings enter here: none keeps an invisible or bidirectional control character
+    return withoutInvisibleDeep(JSON.parse(text));
   } catch {
     throw new LaunchProblem(
       'bad-server',

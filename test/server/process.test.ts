@@ -1,82 +1,14 @@
 // The real server process: default bind, the warning for a wider bind, the cluster start command, and
 // that no value from a case reaches stdout, stderr or disk.
-import { afterAll, describe, expect, it } from 'vitest';
-import { spawn, type ChildProcess } from 'node:child_process';
-import { createServer } from 'node:net';
+import { describe, expect, it, vi } from 'vitest';
 import { readdirSync, readFileSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import { tmpdir } from 'node:os';
+import { START_MS, start, stop } from './processHarness.ts';
 
 const root = new URL('../..', import.meta.url).pathname;
-const children: ChildProcess[] = [];
-afterAll(() => {
-  for (const child of children) child.kill('SIGTERM');
-});
-
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const srv = createServer();
-    srv.listen(0, '127.0.0.1', () => {
-      const address = srv.address();
-      srv.close(() =>
-        typeof address === 'object' && address
-          ? resolve(address.port)
-          : reject(new Error('no port')),
-      );
-    });
-  });
-}
-
-interface Running {
-  child: ChildProcess;
-  out: () => string;
-  err: () => string;
-  base: string;
-}
-
-async function start(
-  script: string,
-  env: Record<string, string>,
-  readyCount = 1,
-): Promise<Running> {
-  const port = env.PORT ?? String(await freePort());
-  const child = spawn(process.execPath, ['--import', 'tsx', script], {
-    cwd: root,
-    env: { ...process.env, ...env, PORT: port },
-    stdio: ['ignore', 'pipe', 'pipe'],
-  });
-  children.push(child);
-  let out = '',
-    err = '';
-  child.stdout!.on('data', (b: Buffer) => {
-    out += b.toString();
-  });
-  child.stderr!.on('data', (b: Buffer) => {
-    err += b.toString();
-  });
-  await new Promise<void>((resolve, reject) => {
-    const timer = setTimeout(() => reject(new Error(`not ready in 15 s: ${out} ${err}`)), 15_000);
-    const check = () => {
-      if ((out.match(/listening on/g) ?? []).length >= readyCount) {
-        clearTimeout(timer);
-        resolve();
-      }
-    };
-    child.stdout!.on('data', check);
-    child.on('exit', (code) => {
-      clearTimeout(timer);
-      reject(new Error(`exited ${code}: ${err}`));
-    });
-  });
-  const host = env.HOST ?? '127.0.0.1';
-  return { child, out: () => out, err: () => err, base: `http://${host}:${port}` };
-}
-
-const stop = (r: Running) =>
-  new Promise<void>((resolve) => {
-    r.child.once('exit', () => resolve());
-    r.child.kill('SIGTERM');
-  });
+// a start may be slow on a shared machine; nothing here measures a speed
+vi.setConfig({ testTimeout: 3 * START_MS });
 
 describe('binding', () => {
   it('binds 127.0.0.1 by default, without a warning', async () => {

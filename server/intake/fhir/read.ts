@@ -7,6 +7,7 @@ import { missingGas } from '../case.ts';
 import { build } from './build.ts';
 import { readObservation, type ReadState } from './observation.ts';
 import { isObject, resources, text } from './payload.ts';
+import { withoutInvisibleDeep } from '../invisible.ts';
 import type { FhirResult } from './types.ts';
 
 export function caseFromFhir(json: unknown): FhirResult {
@@ -38,6 +39,8 @@ export function caseFromFhir(json: unknown): FhirResult {
       return finish(result);
     }
   }
+  // the edge: no string of the payload keeps an invisible or bidirectional control character
+  payload = withoutInvisibleDeep(payload);
   const located = resources(payload, result);
   for (const { resource, fullUrl } of located) {
     if (fullUrl) state.known.add(fullUrl);
