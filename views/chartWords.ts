@@ -87,7 +87,7 @@ export function gasSentence(g: Placed, f: Findings, total: number): string {
 }
 
 export function targetText(t: TargetPoint, unit: PressureUnit): string {
-  return `A dashed arrow runs from today's gas to the ventilator target: PaCO2 ${pressureText(t.pco2, unit)} ${unit}; with acute buffering (HCO3 moves about ${PHYSIOLOGY.acuteBufferPerMmHg} mmol/L per mmHg) HCO3 would be about ${hco3Text(t.hco3)} mmol/L there, so [H+] about ${hPlusText(t.hPlus)} nmol/L (pH ${phText(phFromHydrogenIon(t.hPlus))}).`;
+  return `A dashed arrow runs from today's gas to the ventilator target: PaCO2 ${pressureText(t.pco2, unit)} ${unit}; with acute buffering (HCO3 moves about ${PHYSIOLOGY.acuteBufferPerMmHg} mmol/L per mmHg) HCO3 would be about ${hco3Text(t.hco3)} mmol/L there, so [H+] about ${hPlusText(t.hPlus)} nmol/L (pH ${phText(phFromHydrogenIon(t.hPlus))}). A rule of thumb: recheck a gas after the change.`;
 }
 
 export function sampleText(sample: Findings['case']['sample'], unit: PressureUnit): string | null {
@@ -140,7 +140,7 @@ export function textAlternative(f: Findings, w: WordsInput): string {
   const sample = sampleText(f.case.sample, unit);
   if (sample) lines.push(sample);
   lines.push(
-    'Positions follow the Henderson equation; the target assumes a steady state and rules of thumb. Decision support for licensed clinicians: check the sample and the patient, and follow local protocols and senior advice.',
+    'Positions follow the Henderson equation from the values entered. Decision support for licensed clinicians: check the sample and the patient, and follow local protocols and senior advice.',
   );
   return lines.join('\n');
 }
