@@ -98,6 +98,7 @@ export function acidBaseChart(f: Findings, options: ChartOptions = {}): ChartRes
   if (f.reference.kind !== 'textbook') entries.push(KEY.reference);
   const L = layout(entries.length);
   const fr = L.frame;
+  const zone = normalZoneMark(fr);
   for (const g of placed) g.at = toPoint(fr, g.clamped.point);
 
   const text = textAlternative(f, { placed, byTakenAt, target, targetWithheld: withheld });
@@ -109,15 +110,15 @@ export function acidBaseChart(f: Findings, options: ChartOptions = {}): ChartRes
     `<rect class="gl-chart-paper" x="0" y="0" width="${L.width}" height="${L.height}" fill="${PAPER}"/>`,
     axes(fr, unit),
     `<g class="gl-chart-plot" clip-path="url(#${id('clip')})">`,
-    normalZoneMark(fr),
+    zone.svg,
     hco3Lines(fr),
     '</g>',
     hco3Labels(fr),
     f.reference.kind !== 'textbook' ? referenceMark(fr, f.reference) : '',
     `<rect class="gl-chart-frame" x="${n2(fr.left)}" y="${n2(fr.top)}" width="${n2(fr.width)}" height="${n2(fr.height)}" fill="none" stroke="${INK}" id="${id('plot')}"/>`,
-    target && current ? targetArrow(fr, current, target, id) : '',
+    target && current ? targetArrow(fr, placed, target, zone.points, id) : '',
     path(placed, id),
-    markers(placed, fr, id, target ? toPoint(fr, clampToWindow(target).point) : null),
+    markers(placed, fr, id, target ? toPoint(fr, clampToWindow(target).point) : null, zone.points),
     f.withheld
       ? `<text class="gl-chart-withheld" x="${n2(fr.left + fr.width / 2)}" y="${n2(fr.top + 28)}" text-anchor="middle" font-size="${FONT.label}" font-weight="600" stroke="${PAPER}" stroke-width="4" paint-order="stroke"><tspan x="${n2(fr.left + fr.width / 2)}">No gas placed: confirm whether</tspan><tspan x="${n2(fr.left + fr.width / 2)}" dy="17">PaCO₂ is in mmHg or kPa</tspan></text>`
       : '',

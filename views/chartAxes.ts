@@ -5,6 +5,7 @@ import {
   CHART_WINDOW,
   type Frame,
   HCO3_LINES,
+  type Point,
   PH_TICKS,
   clampToWindow,
   hco3LineEnd,
@@ -124,14 +125,21 @@ export function hco3Labels(f: Frame): string {
   return s.join('\n');
 }
 
-export function normalZoneMark(f: Frame): string {
+/** The normal box, and the points of it a label should keep clear of (its corners and middle). */
+export function normalZoneMark(f: Frame): { svg: string; points: Point[] } {
   const z = normalZone();
   const a = toPoint(f, { pco2: z.pco2.low, hPlus: z.hPlus.high });
   const b = toPoint(f, { pco2: z.pco2.high, hPlus: z.hPlus.low });
-  return (
-    `<g class="gl-normal-zone"><rect data-zone="normal" x="${n2(a.x)}" y="${n2(a.y)}" width="${n2(b.x - a.x)}" height="${n2(b.y - a.y)}" fill="${NORMAL_FILL}" fill-opacity="0.9" stroke="${NORMAL_STROKE}" stroke-width="1.4"/>` +
-    `<text x="${n2(a.x - 4)}" y="${n2(b.y + 13)}" text-anchor="end" font-size="${FONT.label}" font-weight="600" fill="${NORMAL_STROKE}" ${HALO}>normal</text></g>`
-  );
+  return {
+    svg: `<g class="gl-normal-zone"><rect data-zone="normal" x="${n2(a.x)}" y="${n2(a.y)}" width="${n2(b.x - a.x)}" height="${n2(b.y - a.y)}" fill="${NORMAL_FILL}" fill-opacity="0.9" stroke="${NORMAL_STROKE}" stroke-width="1.4"/></g>`,
+    points: [
+      a,
+      b,
+      { x: a.x, y: b.y },
+      { x: b.x, y: a.y },
+      { x: (a.x + b.x) / 2, y: (a.y + b.y) / 2 },
+    ],
+  };
 }
 
 /** The patient's usual point (or the pregnancy reference) as a cross, where the reading starts from. */

@@ -20,6 +20,7 @@ import {
   ROW,
   n2,
 } from './chartStyle.ts';
+import { type Obstacles, labelSpot } from './chartLabels.ts';
 import { type PlottedGas, escapeXml } from './chartText.ts';
 
 export interface Placed extends PlottedGas {
@@ -79,52 +80,26 @@ function rangeBar(f: Frame, g: Placed): string {
   return `<path class="gl-venous-range" data-pco2-low="${r.low}" data-pco2-high="${r.high}" d="M${n2(a)},${n2(y - 6)} V${n2(y + 6)} M${n2(a)},${n2(y)} H${n2(b)} M${n2(b)},${n2(y - 6)} V${n2(y + 6)}" stroke="${INK}" stroke-width="2" fill="none"/>`;
 }
 
-/** The marks a gas is joined to: the gases before and after it, and for today's gas the target. */
-function neighbours(placed: Placed[], g: Placed, target: Point | null): Point[] {
-  const i = placed.indexOf(g);
-  const joined = [placed[i - 1], placed[i + 1]].flatMap((n) => (n ? [n.at] : []));
-  return g.current && target ? [...joined, target] : joined;
-}
-
-/**
- * Where a mark's label goes: away from the marks it is joined to (so the path and the arrows stay clear), at
- * the given distance, and inside the frame. With nothing to avoid, up and to the right.
- */
-export function labelSpot(
-  at: Point,
-  avoid: Point[],
-  distance: number,
-  f: Frame,
-): { x: number; y: number; anchor: 'start' | 'end' } {
-  let vx = 0,
-    vy = 0;
-  for (const n of avoid) {
-    const d = Math.hypot(at.x - n.x, at.y - n.y);
-    if (d > 0.5) {
-      vx += (at.x - n.x) / d;
-      vy += (at.y - n.y) / d;
-    }
-  }
-  let len = Math.hypot(vx, vy);
-  if (len < 0.3) {
-    // on a straight path (or alone): beside it, on the side nearer the upper right
-    const n = avoid[0];
-    const ux = n ? (at.x - n.x) / Math.max(1, Math.hypot(at.x - n.x, at.y - n.y)) : 0;
-    const uy = n ? (at.y - n.y) / Math.max(1, Math.hypot(at.x - n.x, at.y - n.y)) : 0;
-    [vx, vy] = n && Math.hypot(ux, uy) > 0 ? (ux + uy > 0 ? [uy, -ux] : [-uy, ux]) : [0.6, -0.8];
-    len = Math.hypot(vx, vy);
-  }
-  vx /= len;
-  vy /= len;
-  const anchor = vx >= 0 ? 'start' : 'end';
-  let x = at.x + vx * distance,
-    y = at.y + vy * distance + 4.5 + (vy > 0.3 ? 4 : 0);
-  // inside the frame: flip to the other side when the label would leave it
-  if (anchor === 'start' && x + 40 > f.left + f.width) x = at.x - distance;
-  if (anchor === 'end' && x - 40 < f.left) x = at.x + distance;
-  const flipped = x < at.x ? 'end' : 'start';
-  y = Math.min(f.top + f.height - 4, Math.max(f.top + 14, y));
-  return { x, y, anchor: flipped };
+/** What a gas's label keeps clear of: the other marks, the steps between gases, and the target's arrow. */
+function obstacles(
+  placed: Placed[],
+  g: Placed | null,
+  target: Point | null,
+  extra: Point[] = [],
+): Obstacles {
+  const current = placed.at(-1);
+  const segments: [Point, Point][] = placed
+    .slice(1)
+    .map((b, i) => [(placed[i] as Placed).at, b.at]);
+  if (target && current) segments.push([current.at, target]);
+  return {
+    points: [
+      ...placed.filter((p) => p !== g).map((p) => p.at),
+      ...(target ? [target] : []),
+      ...extra,
+    ],
+    segments,
+  };
 }
 
 export function markers(
@@ -132,6 +107,7 @@ export function markers(
   f: Frame,
   id: (s: string) => string,
   target: Point | null,
+  zone: Point[],
 ): string {
   const s: string[] = ['<g class="gl-gases">'];
   for (const g of placed) {
@@ -167,10 +143,18 @@ export function markers(
         `<path id="${id(`off-scale-${g.number}`)}" class="gl-off-scale" d="M${n2(base.x - vy * 5)},${n2(base.y + vx * 5)} L${n2(tip.x)},${n2(tip.y)} L${n2(base.x + vy * 5)},${n2(base.y - vx * 5)} z" fill="${INK}"/>`,
       );
     }
-    const spot = labelSpot(g.at, neighbours(placed, g, target), radius(g) + (g.current ? 6 : 3), f);
     const words = `${g.current ? 'now' : g.number}${offScale(g) ? ' (off scale)' : ''}`;
+    const size = g.current ? FONT.gas : FONT.label;
+    const spot = labelSpot(
+      g.at,
+      words,
+      size,
+      radius(g) + (g.current ? 6 : 3),
+      f,
+      obstacles(placed, g, target, zone),
+    );
     s.push(
-      `<text class="gl-gas-label" x="${n2(spot.x)}" y="${n2(spot.y)}" text-anchor="${spot.anchor}" font-size="${g.current ? FONT.gas : FONT.label}" font-weight="${g.current ? 700 : 600}" ${HALO}>${escapeXml(words)}</text>`,
+      `<text class="gl-gas-label" x="${n2(spot.x)}" y="${n2(spot.y)}" text-anchor="${spot.anchor}" font-size="${size}" font-weight="${g.current ? 700 : 600}" ${HALO}>${escapeXml(words)}</text>`,
     );
     s.push('</g>');
   }
@@ -181,10 +165,12 @@ export function markers(
 /** From today's gas to where the ventilator suggestion aims: a dashed arrow, labelled at its head. */
 export function targetArrow(
   f: Frame,
-  from: Placed,
+  placed: Placed[],
   target: TargetPoint,
+  zone: Point[],
   id: (s: string) => string,
 ): string {
+  const from = placed.at(-1) as Placed;
   const to = toPoint(f, clampToWindow(target).point);
   const line = step(
     from.at,
@@ -194,17 +180,13 @@ export function targetArrow(
     `class="gl-target-step" stroke="${INK}" stroke-width="1.6" stroke-dasharray="5 3"`,
     id('arrow-open'),
   );
-  // the label beside the head, across the arrow on the side towards the right, clear of the shaft
-  const d = Math.max(1, Math.hypot(to.x - from.at.x, to.y - from.at.y));
-  const ux = (to.x - from.at.x) / d,
-    uy = (to.y - from.at.y) / d;
-  const [px, py] = uy >= 0 ? [uy, -ux] : [-uy, ux];
-  const lx = to.x + px * 12,
-    ly = to.y + py * 12 + 4.5;
-  const anchor = px >= 0 ? 'start' : 'end';
+  // the label beside the head, clear of the arrow, the gases and the normal box
+  const avoid = obstacles(placed, null, null, zone);
+  avoid.segments.push([from.at, to]);
+  const spot = labelSpot(to, 'target', FONT.label, 8, f, avoid);
   return (
     `<g class="gl-target" data-target-pco2-mmhg="${n2(target.pco2)}" data-target-hplus="${n2(target.hPlus)}" data-target-hco3="${n2(target.hco3)}">${line}` +
-    `<text x="${n2(lx)}" y="${n2(ly)}" text-anchor="${anchor}" font-size="${FONT.label}" font-weight="600" ${HALO}>target</text></g>`
+    `<text x="${n2(spot.x)}" y="${n2(spot.y)}" text-anchor="${spot.anchor}" font-size="${FONT.label}" font-weight="600" ${HALO}>target</text></g>`
   );
 }
 
@@ -241,7 +223,7 @@ export const KEY = {
   venous: {
     glyph: (x, y) =>
       `<path d="M${n2(x + 2)},${n2(y - 6)} V${n2(y + 6)} M${n2(x + 2)},${n2(y)} H${n2(x + 20)} M${n2(x + 20)},${n2(y - 6)} V${n2(y + 6)}" stroke="${INK}" stroke-width="2" fill="none"/>`,
-    words: 'arterial estimate',
+    words: 'estimated PaCO₂',
   },
   reference: {
     glyph: (x, y) =>

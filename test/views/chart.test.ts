@@ -115,7 +115,7 @@ describe('a venous sample, plotted as its arterial estimate', () => {
   });
 
   it('keys the bar', () => {
-    expect(svg).toContain('>arterial estimate</text>');
+    expect(svg).toContain('>estimated PaCO₂</text>');
   });
 });
 
