@@ -86,6 +86,31 @@ describe('the text alternative', () => {
   });
 });
 
+describe("the patient's own reference", () => {
+  it('marks stated usual values with a cross where the Henderson equation puts them', () => {
+    // usual PaCO2 52, HCO3 30: [H+] = 24 x 52 / 30 = 41.6 nmol/L (Henderson equation, clinical-scope section 2)
+    const f = findingsOf({
+      gas: { ph: 7.3, pco2: 66, hco3: 31.5 },
+      context: { timing: 'chronic', baseline: { pco2: 52, hco3: 30 } },
+    });
+    const { svg, text } = acidBaseChart(f);
+    const cross = svg.match(/<g class="gl-reference"><path d="M([\d.]+),([\d.]+) H([\d.]+)/);
+    const at = fromPoint(frame, { x: (num(cross?.[1]) + num(cross?.[3])) / 2, y: num(cross?.[2]) });
+    expect(at.pco2).toBeCloseTo(52, 1);
+    expect(at.hPlus).toBeCloseTo(41.6, 1);
+    expect(text).toContain(
+      "A cross marks the patient's usual values: PaCO2 52 mmHg, HCO3 30.0 mmol/L.",
+    );
+    expect(svg).toContain('>reference point</text>');
+  });
+
+  it('names a value worked out from the other two', () => {
+    // pH and PaCO2 only: HCO3 = 24 x 40 / 39.8 = 24.1 mmol/L (Henderson equation)
+    const { text } = acidBaseChart(findingsOf({ gas: { ph: 7.4, pco2: 40 } }));
+    expect(text).toContain('HCO3 24.1 mmol/L (HCO3 worked out from the other two)');
+  });
+});
+
 describe('a venous sample, plotted as its arterial estimate', () => {
   const f = findingsOf(VENOUS);
   const { text, svg } = acidBaseChart(f);
