@@ -103,7 +103,7 @@ export function acidBaseChart(f: Findings, options: ChartOptions = {}): ChartRes
 
   const text = textAlternative(f, { placed, byTakenAt, target, targetWithheld: withheld });
   const out = [
-    `<svg xmlns="http://www.w3.org/2000/svg" class="gl-chart" viewBox="0 0 ${L.width} ${L.height}" width="${L.width}" height="${L.height}" role="img" aria-labelledby="${id('title')} ${id('desc')}" font-family="system-ui, 'Segoe UI', 'DejaVu Sans', Arial, sans-serif" font-size="${FONT.label}" fill="${INK}">`,
+    `<svg xmlns="http://www.w3.org/2000/svg" class="gl-chart" viewBox="0 0 ${L.width} ${L.height}" width="${L.width}" height="${L.height}" role="img" aria-labelledby="${id('title')}" aria-describedby="${id('desc')}" font-family="system-ui, 'Segoe UI', 'DejaVu Sans', Arial, sans-serif" font-size="${FONT.label}" fill="${INK}">`,
     `<title id="${id('title')}">${escapeXml(o.title)}</title>`,
     `<desc id="${id('desc')}">${escapeXml(text)}</desc>`,
     `<defs><clipPath id="${id('clip')}"><rect x="${n2(fr.left)}" y="${n2(fr.top)}" width="${n2(fr.width)}" height="${n2(fr.height)}"/></clipPath>${arrowDefs(id)}</defs>`,

@@ -257,7 +257,7 @@ describe('the H+/CO2 chart on the draft', () => {
     );
     const svg = svgOf(html);
     expect(svg).toMatch(
-      /^<svg xmlns="http:\/\/www\.w3\.org\/2000\/svg" class="gl-chart"[^>]* role="img" aria-labelledby="gasline-chart-title gasline-chart-desc"/,
+      /^<svg xmlns="http:\/\/www\.w3\.org\/2000\/svg" class="gl-chart"[^>]* role="img" aria-labelledby="gasline-chart-title" aria-describedby="gasline-chart-desc"/,
     );
     expect(svg.match(/class="gl-gas-marker"/g)).toHaveLength(1);
     expect(svg).not.toMatch(/<script|\sstyle=|\son[a-z]+=/i);

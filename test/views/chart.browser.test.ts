@@ -89,6 +89,11 @@ describe.skipIf(!run)('the H+/CO2 chart in Chromium', () => {
       const draftBox = await wide.page.locator('.draft').first().boundingBox();
       expect(chartBox && draftBox && chartBox.x > draftBox.x + draftBox.width).toBe(true);
       expect(await smallestTextPx(wide.page)).toBeGreaterThanOrEqual(11);
+      // open to assistive technology too: an image named by its title, and the words' summary
+      const tree = await wide.page.locator('#chart').ariaSnapshot();
+      expect(tree).toContain('figure "H⁺/CO₂ chart"');
+      expect(tree).toContain('img "H⁺/CO₂ chart: [H⁺] against PaCO₂, with lines of equal HCO₃⁻"');
+      expect(tree).toContain('group: What the chart shows');
       await wide.axe('chart open');
       await wide.shot('page', { full: false });
       await wide.page

@@ -191,9 +191,9 @@ describe('legible and accessible', () => {
     expect(svg).toMatch(/^<svg [^>]*font-size="13"/);
   });
 
-  it('is an image with a title and a description it is labelled by', () => {
+  it('is an image named by its title and described by the chart in words', () => {
     expect(svg).toMatch(
-      /^<svg [^>]*role="img" aria-labelledby="gasline-chart-title gasline-chart-desc"/,
+      /^<svg [^>]*role="img" aria-labelledby="gasline-chart-title" aria-describedby="gasline-chart-desc"/,
     );
     expect(svg).toContain('<title id="gasline-chart-title">H⁺/CO₂ chart');
     expect(svg).toMatch(/<desc id="gasline-chart-desc">H\+\/CO2 chart: /);
