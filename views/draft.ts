@@ -1,10 +1,10 @@
 // The draft under the answered steps: the note and handover (from the department's templates), the cautions, the
-// acid-base map, the explain view and the follow-up form. Built from the findings the request already holds.
+// H+/CO2 chart, the explain view and the follow-up form. Built from the findings the request already holds.
 import { marked } from 'marked';
 import sanitizeHtml from 'sanitize-html';
 import { MAX_PREVIOUS_GASES, units as U, type Findings } from '../calc/index.ts';
 import type { NoteRenderer } from '../templates/index.ts';
-import { acidBaseMap } from './map.ts';
+import { acidBaseChart } from './chart.ts';
 import { earlierGases, type Json } from './paths.ts';
 import type { Format } from './flow.ts';
 
@@ -51,16 +51,10 @@ export function markdownPreview(text: string): string {
   return sanitizeHtml(html, { allowedTags: PREVIEW_TAGS, allowedAttributes: {} });
 }
 
-/** The acid-base map and its words; a drawing it cannot make leaves the draft without it rather than failing. */
-function mapView(f: Findings) {
-  try {
-    // the drawing's own size (680 wide, its labels laid out for it); the key grows one row per gas, up to six
-    const map = acidBaseMap(f, { height: 660 + Math.min(f.previous.length, 5) * 16 });
-    return { svg: map.svg, lines: map.text.split('\n').filter((line) => line.trim() !== '') };
-  } catch (e) {
-    if (e instanceof RangeError) return null;
-    throw e;
-  }
+/** The H+/CO2 chart and its words. */
+function chartView(f: Findings) {
+  const chart = acidBaseChart(f);
+  return { svg: chart.svg, lines: chart.text.split('\n').filter((line) => line.trim() !== '') };
 }
 
 function followUpView(answers: Json, followUp: DraftOptions['followUp']) {
@@ -94,7 +88,7 @@ export function draftView(f: Findings, answers: Json, renderer: NoteRenderer, o:
       label: SEVERITY_LABEL[flag.severity],
       message: renderer.flagMessage(flag, f),
     })),
-    map: mapView(f),
+    chart: chartView(f),
     explain: Object.values(f.explain).map((e) => ({
       key: e.key,
       label: e.label,

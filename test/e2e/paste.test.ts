@@ -1,5 +1,5 @@
 // Getting numbers in fast, in headless Chromium: a pasted printout that becomes a note, a FHIR bundle pasted on
-// a phone, and a follow-up gas whose trend shows in the note and on the map; once more without JavaScript.
+// a phone, and a follow-up gas whose trend shows in the note and on the H+/CO2 chart; once more without JavaScript.
 // Every view is checked with axe-core (no serious or critical violation) and photographed into screenshots/;
 // no CSP violation and no request leaves the machine. Every patient and printout is invented.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -70,7 +70,7 @@ describe.skipIf(!run)('pasting results and following up, in Chromium', () => {
     await s.context.close();
   }
 
-  it('a pasted printout becomes a confirmed case in one step and then a note, with the map beside it', async () => {
+  it('a pasted printout becomes a confirmed case in one step and then a note, with the chart beside it', async () => {
     const s = await openSession(h, 'paste-printout');
     const { page } = s;
     await page.goto(`${h.origin}/`);
@@ -129,26 +129,27 @@ describe.skipIf(!run)('pasting results and following up, in Chromium', () => {
     expect(text).toContain('24.4');
     expect(s.navigations()).toBe(1);
 
-    // the map beside the draft on a wide screen, one gas on it, with the same in words
-    const map = page.locator('#map');
+    // the chart beside the draft on a wide screen, one gas on it, with the same in words
+    const map = page.locator('#chart');
     const [draftBox, mapBox] = [
       await page.locator('#draft').boundingBox(),
       await map.boundingBox(),
     ];
     expect(mapBox!.x).toBeGreaterThan(draftBox!.x + draftBox!.width - 1);
     expect(await map.locator('.gl-gas-marker').count()).toBe(1);
-    await page.getByText('The map in words').click();
-    expect(await map.locator('.map-lines').textContent()).toMatch(
-      /Current gas \(1 of 1\): pH 7\.26, PaCO2 29 mmHg, HCO3 13\.6 mmol\/L/,
+    await page.getByText('What the chart shows').click();
+    // [H+] = 10^(9 - 7.26) = 55 nmol/L (definition of pH)
+    expect(await map.locator('.chart-lines').textContent()).toMatch(
+      /Today's gas \(1 of 1\): pH 7\.26 \(\[H\+\] 55 nmol\/L\), PaCO2 29 mmHg, HCO3 13\.6 mmol\/L/,
     );
-    await s.axe('draft with map');
+    await s.axe('draft with chart');
     await s.shot('draft');
     await s.shot('draft-in-view', { full: false });
 
-    // print: the note, then the map, legible on paper
+    // print: the note, then the chart, legible on paper
     await page.emulateMedia({ media: 'print' });
     expect(await map.isVisible()).toBe(true);
-    expect(await page.locator('.map-words').isVisible()).toBe(false);
+    expect(await page.locator('.chart-words').isVisible()).toBe(false);
     expect(await page.locator('.followup').isVisible()).toBe(false);
     const printed = await map.locator('svg').boundingBox();
     expect(printed!.width).toBeGreaterThan(400);
@@ -210,20 +211,20 @@ describe.skipIf(!run)('pasting results and following up, in Chromium', () => {
       ).text,
     );
     expect(text).toMatch(/venous/i);
-    // on a phone the map comes below the draft
+    // on a phone the chart comes below the draft, folded
     const [draftBox, mapBox] = [
       await page.locator('#draft').boundingBox(),
-      await page.locator('#map').boundingBox(),
+      await page.locator('#chart').boundingBox(),
     ];
     expect(mapBox!.y).toBeGreaterThan(draftBox!.y + draftBox!.height - 1);
-    await page.locator('#map').scrollIntoViewIfNeeded();
+    await page.locator('#chart').scrollIntoViewIfNeeded();
     await s.axe('draft on a phone');
     await s.shot('map-below', { full: false });
     await s.shot('draft');
     await finish(s);
   });
 
-  it('a follow-up gas after a ventilator change: the trend in the note and two points on the map', async () => {
+  it('a follow-up gas after a ventilator change: the trend in the note and two points on the chart', async () => {
     const s = await openSession(h, 'followup');
     const { page } = s;
     await page.goto(`${h.origin}/`);
@@ -309,12 +310,12 @@ describe.skipIf(!run)('pasting results and following up, in Chromium', () => {
     // the chart-ready note carries the change made; the prediction (61 x 14 / 18 = 47 mmHg, alveolar ventilation
     // equation, West) is in the full reasoning
     expect(text).toContain('PaCO2 61 to 49 mmHg after RR 14 to 18/min');
-    const map = page.locator('#map');
+    const map = page.locator('#chart');
     expect(await map.locator('.gl-gas-marker').count()).toBe(2);
     expect(await map.locator('.gl-gas-step').count()).toBe(1);
-    await page.getByText('The map in words').click();
-    expect(await map.locator('.map-lines').textContent()).toContain(
-      'Gas 1 of 2, before RR change: pH 7.22, PaCO2 61 mmHg',
+    await page.getByText('What the chart shows').click();
+    expect(await map.locator('.chart-lines').textContent()).toContain(
+      'Gas 1 of 2, before RR change: pH 7.22 ([H+] 60 nmol/L), PaCO2 61 mmHg',
     );
     await s.axe('draft with trend');
     await s.shot('draft-trend');

@@ -781,7 +781,7 @@ function formRequest(
 // ---------- the checks ----------
 
 const VIEWS = new URL('../../views/', import.meta.url);
-// every tag the page's templates and view modules write (the acid-base map is SVG built in views/map.ts)
+// every tag the page's templates and view modules write (the H+/CO2 chart is SVG built in views/chart*.ts)
 const TEMPLATE_TAGS = new Set(
   readdirSync(VIEWS)
     .filter((f) => f.endsWith('.njk') || f.endsWith('.ts'))

@@ -1,6 +1,6 @@
-// A follow-up gas on the draft, and the acid-base map beside it, through app.request. The current gas (with its
+// A follow-up gas on the draft, and the H+/CO2 chart beside it, through app.request. The current gas (with its
 // FiO2, PEEP, VT and RR) becomes an earlier gas; the gas, oxygen and ventilator steps open for the new values;
-// chemistry, patient and context stay; the draft then carries the trend the note templates write, and the map
+// chemistry, patient and context stay; the draft then carries the trend the note templates write, and the chart
 // places both gases. Every patient here is invented.
 import { describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app.ts';
@@ -120,7 +120,7 @@ describe('the draft offers a follow-up gas', () => {
     expect(previous[0]!.takenAt).toBeUndefined();
   });
 
-  it('the follow-up flow: gas, oxygen, ventilator, then a draft with the trend in the note and both gases on the map', async () => {
+  it('the follow-up flow: gas, oxygen, ventilator, then a draft with the trend in the note and both gases on the chart', async () => {
     let html = (await followUp(await ventilatedDraft(), 'before RR change')).html;
     html = (
       await answer(html, 'gas', {
@@ -176,11 +176,11 @@ describe('the draft offers a follow-up gas', () => {
 
     const svg = svgOf(html);
     expect(svg.match(/class="gl-gas-marker"/g)).toHaveLength(2);
-    expect(svg).toContain('id="gasline-map-gas-current"');
-    expect(svg).toContain('id="gasline-map-gas-1"');
+    expect(svg).toContain('id="gasline-chart-gas-current"');
+    expect(svg).toContain('id="gasline-chart-gas-1"');
     expect(svg).toMatch(/class="gl-gas-step" data-from="1" data-to="2"/);
     expect(html).toMatch(
-      /<li>Gas 1 of 2, before RR change: pH 7\.22, PaCO2 61 mmHg, HCO3 24\.3 mmol\/L/,
+      /<li>Gas 1 of 2, before RR change: pH 7\.22 \(\[H\+\] 60 nmol\/L\), PaCO2 61 mmHg, HCO3 24\.3 mmol\/L/,
     );
     // a second follow-up is offered, up to the schema's limit
     expect(html).toContain('Add a follow-up gas');
@@ -251,23 +251,25 @@ describe('the draft offers a follow-up gas', () => {
   });
 });
 
-describe('the acid-base map on the draft', () => {
+describe('the H+/CO2 chart on the draft', () => {
   it('is drawn beside the note with its text alternative, CSP-safe', async () => {
     const html = await ventilatedDraft();
     expect(html).toMatch(
-      /<\/section>\s*<section class="map-panel" id="map" aria-labelledby="map-heading">/,
+      /<\/section>\s*<section class="chart-panel" id="chart" aria-labelledby="chart-heading">/,
     );
     const svg = svgOf(html);
     expect(svg).toMatch(
-      /^<svg xmlns="http:\/\/www\.w3\.org\/2000\/svg" class="gl-map"[^>]* role="img" aria-labelledby="gasline-map-title gasline-map-desc"/,
+      /^<svg xmlns="http:\/\/www\.w3\.org\/2000\/svg" class="gl-chart"[^>]* role="img" aria-labelledby="gasline-chart-title" aria-describedby="gasline-chart-desc"/,
     );
     expect(svg.match(/class="gl-gas-marker"/g)).toHaveLength(1);
     expect(svg).not.toMatch(/<script|\sstyle=|\son[a-z]+=/i);
-    expect(html).toContain('<summary>The map in words</summary>');
+    expect(html).toContain('<summary>What the chart shows</summary>');
     expect(html).toMatch(
-      /<ul class="map-lines"><li>Acid-base map: HCO3 \(5-50 mmol\/L, up\) against pH/,
+      /<ul class="chart-lines"><li>H\+\/CO2 chart: \[H\+\] from 0 to 130 nmol\/L \(up, with pH beside it\) against PaCO2/,
     );
-    expect(html).toMatch(/<li>Current gas \(1 of 1\): pH 7\.22, PaCO2 61 mmHg, HCO3 24\.3 mmol\/L/);
+    expect(html).toMatch(
+      /<li>Today&#39;s gas \(1 of 1\): pH 7\.22 \(\[H\+\] 60 nmol\/L\), PaCO2 61 mmHg, HCO3 24\.3 mmol\/L/,
+    );
   });
 
   it('escapes a hostile label in the drawing and in the words', async () => {
@@ -290,6 +292,6 @@ describe('the acid-base map on the draft', () => {
 
   it('is not drawn while no draft is shown', async () => {
     const pending = (await followUp(await ventilatedDraft(), '')).html;
-    expect(pending).not.toContain('map-panel');
+    expect(pending).not.toContain('chart-panel');
   });
 });

@@ -1,4 +1,4 @@
-// Serial gases in one order: the note, the acid-base map and the page's log of earlier gases all place the gases by
+// Serial gases in one order: the note, the H+/CO2 chart and the page's log of earlier gases all place the gases by
 // the time they were taken (calc's inTimeOrder), however the time is written. "2026-03-02 04:10" and
 // "2026-03-02T03:00" are ISO 8601 date-times (the space for the "T" as RFC 3339 section 5.6 allows): 03:00 comes
 // first, whatever order they were entered in. The patient is invented; each gas fits the Henderson equation,
@@ -22,11 +22,11 @@ const answers = {
 function pageOf(previous: unknown[]) {
   const state = { answers: { ...answers, previous }, done: [...STEP_IDS], format: 'text' as const };
   const view = flowView(state, { renderer: createNoteRenderer() });
-  if (!view.draft?.map) throw new Error('no draft with a map');
+  if (!view.draft?.chart) throw new Error('no draft with a chart');
   const log = (view.items as { type: string; title: string; when: string | null }[]).filter(
     (i) => i.type === 'earlier',
   );
-  return { note: view.draft.text, map: view.draft.map, log };
+  return { note: view.draft.text, chart: view.draft.chart, log };
 }
 
 describe('serial gases in one order', () => {
@@ -34,24 +34,19 @@ describe('serial gases in one order', () => {
     ['the later gas entered first', [LATER, EARLY]],
     ['in time order', [EARLY, LATER]],
   ] as const) {
-    it(`note, map and page agree: ${entered}`, () => {
-      const { note, map, log } = pageOf([...previous]);
+    it(`note, chart and page agree: ${entered}`, () => {
+      const { note, chart, log } = pageOf([...previous]);
       // the note compares with the gas just before this one: 04:10
       expect(note).toContain('Since the previous gas (2026-03-02 04:10):');
       expect(note).toMatch(/pH 7\.26 to 7\.32/);
-      // the map numbers the gases oldest first and joins them 1 -> 2 -> 3: 03:00, then 04:10, then now
-      const lines = map.lines.join('\n');
+      // the chart numbers the gases oldest first and joins them 1 -> 2 -> 3: 03:00, then 04:10, then now
+      const lines = chart.lines.join('\n');
       expect(lines).toContain('oldest first, by time taken');
       expect(lines).toMatch(/Gas 1 of 3, taken 2 Mar 2026 03:00: pH 7\.18/);
       expect(lines).toMatch(/Gas 2 of 3, taken 2 Mar 2026 04:10: pH 7\.26/);
-      expect(lines).toMatch(/Current gas \(3 of 3\): pH 7\.32/);
-      const key = (n: number) =>
-        map.svg.match(
-          new RegExp(`<text class="gl-key-row" data-number="${n}"[^>]*>([\\s\\S]*?)</text>`),
-        )?.[1];
-      expect(key(1)).toContain('pH 7.18');
-      expect(key(2)).toContain('pH 7.26');
-      expect(map.svg).toContain('data-from="2" data-to="3"');
+      expect(lines).toMatch(/Today's gas \(3 of 3\): pH 7\.32/);
+      expect(chart.svg).toContain('data-from="1" data-to="2"');
+      expect(chart.svg).toContain('data-from="2" data-to="3"');
       // the page's log of earlier gases reads them in the same order
       expect(log.map((g) => [g.title, g.when])).toEqual([
         ['Earlier gas 1 of 2', '2026-03-02 03:00'],
