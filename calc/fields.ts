@@ -186,7 +186,7 @@ export const FIELDS = [
     path: 'gas.methb', label: 'MetHb', unit: '%', range: [0, 80], decimals: 1, percent: true, ucum: PERCENT,
     step: 'gas', optional: true,
     printed: [P('F?MetHb|methaemoglobin|methemoglobin', { anyCase: true })],
-    loinc: [L('2614-9', 'blood', 'Methemoglobin/Hemoglobin.total in Blood')], // from memory
+    // no LOINC code: none at hand that could be checked (a code from memory failed the check digit)
   },
   // ---------- chemistry ----------
   {
