@@ -224,10 +224,24 @@ export interface Change {
   change: number;
 }
 
+/** A setting that differs between the latest earlier gas and this one. */
+export interface SettingChange {
+  field: 'fio2' | 'peep' | 'vt' | 'rr';
+  from: number;
+  to: number;
+}
+
 export interface Serial {
   /** the latest earlier gas */
   last: PreviousGas;
   ventilatorChanged: boolean;
+  /** the settings that changed since the latest earlier gas, in a fixed order: rate, volume, PEEP, FiO2 */
+  settingChanges: SettingChange[];
+  /**
+   * Whether this gas is at the ventilation target the clinician set (target pH, else target PaCO2), within
+   * SERIAL.targetPh or SERIAL.targetPco2; null when no target was set.
+   */
+  target: { kind: 'ph' | 'pco2'; value: number; reached: boolean } | null;
   /** the alveolar ventilation equation applied to the change, when the settings allow */
   prediction: {
     vaBefore: number;

@@ -3,6 +3,7 @@ export { interpret, interpretParsed, unitLooksMixed } from './interpret.ts';
 export type {
   Book,
   Change,
+  SettingChange,
   Derived,
   DerivedNumber,
   Findings,

@@ -3,7 +3,15 @@ import type { CanonicalCase } from './canonical.ts';
 import { SERIAL } from './reference.ts';
 import { alveolarVentilation, predictedPco2AfterChange } from './ventilation.ts';
 import { input, record } from './explain.ts';
-import { type Book, type Change, type N, type PreviousGas, type Serial, has } from './findings.ts';
+import {
+  type Book,
+  type Change,
+  type N,
+  type PreviousGas,
+  type Serial,
+  type SettingChange,
+  has,
+} from './findings.ts';
 
 const TIME = /^(\d{4})-(\d{2})-(\d{2})(?:[T ](\d{2}):(\d{2})(?::(\d{2}))?)?/;
 
@@ -44,6 +52,42 @@ export function changesSince(c: CanonicalCase, last: PreviousGas | undefined): C
   return out;
 }
 
+const SETTINGS = [
+  ['rr', (c: CanonicalCase) => c.ventilator?.rr],
+  ['vt', (c: CanonicalCase) => c.ventilator?.vt],
+  ['peep', (c: CanonicalCase) => c.oxygen.peep],
+  ['fio2', (c: CanonicalCase) => c.oxygen.fio2],
+] as const;
+
+/** The settings known at both gases that differ: "RR 22 to 28". */
+export function settingChanges(c: CanonicalCase, last: PreviousGas): SettingChange[] {
+  const out: SettingChange[] = [];
+  for (const [field, now] of SETTINGS) {
+    const from = last[field];
+    const to = now(c);
+    if (has(from) && has(to) && from !== to) out.push({ field, from, to });
+  }
+  return out;
+}
+
+/** Is this gas at the target the clinician set? A target pH is judged first, as the ventilator part uses it. */
+export function targetReached(c: CanonicalCase): Serial['target'] {
+  const v = c.ventilator;
+  if (has(v?.targetPh) && has(c.gas.ph))
+    return {
+      kind: 'ph',
+      value: v.targetPh,
+      reached: Math.abs(c.gas.ph - v.targetPh) <= SERIAL.targetPh + 1e-9,
+    };
+  if (has(v?.targetPco2) && has(c.gas.pco2))
+    return {
+      kind: 'pco2',
+      value: v.targetPco2,
+      reached: Math.abs(c.gas.pco2 - v.targetPco2) <= SERIAL.targetPco2 + 1e-9,
+    };
+  return null;
+}
+
 /** Did the new PaCO2 follow the ventilator change as the alveolar ventilation equation predicts (West)? */
 export function serialPart(
   c: CanonicalCase,
@@ -56,6 +100,8 @@ export function serialPart(
   const out: Serial = {
     last,
     ventilatorChanged: false,
+    settingChanges: settingChanges(c, last),
+    target: targetReached(c),
     prediction: null,
     predictionUnavailable: null,
   };

@@ -107,7 +107,14 @@ export const VENOUS = {
 /** Serial gases: an observed PaCO2 within the larger of 3 mmHg or 10% of the one predicted by the alveolar
  * ventilation equation counts as "as predicted" (our own tolerance for analyser and sampling variation;
  * common practice). */
-export const SERIAL = { pco2Absolute: 3, pco2Relative: 0.1 } as const;
+export const SERIAL = {
+  pco2Absolute: 3,
+  pco2Relative: 0.1,
+  // a follow-up gas "at target": within 0.02 of a target pH or 2 mmHg of a target PaCO2 (common practice: about the
+  // analyser's repeatability and the smallest change a ventilator step aims at; from memory)
+  targetPh: 0.02,
+  targetPco2: 2,
+} as const;
 
 /** Lung-protective ventilation thresholds. */
 export const VENTILATION = {

@@ -32,21 +32,55 @@ export interface NoteRenderer {
 export const DEFAULT_TEMPLATE_DIR = path.dirname(fileURLToPath(import.meta.url));
 
 /** The templates the renderer calls by name; the others are imported or included by these. */
-const ENTRY = { line: 'line.njk', note: 'note.njk', handover: 'handover.njk' } as const;
+const ENTRY = {
+  line: 'line.njk',
+  text: 'short.njk',
+  full: 'note.njk',
+  handover: 'handover.njk',
+} as const;
 const FLAG_MESSAGE_SOURCE = '{% import "flag.njk" as fl %}{{ fl.message(flag) }}';
 
 /**
  * Whitespace inside a paragraph becomes single spaces; no space is left before , . ; : ) or after (, and a
- * sentence that a template tag ran into the next one gets its space back.
+ * sentence that a template tag ran into the next one gets its space back. One pass over the text (every bullet and
+ * line of every note goes through here); the test beside it holds it to the same rules written as regular
+ * expressions.
  */
 export function paragraph(value: unknown): string {
-  return String(value ?? '')
-    .replace(/\s+/g, ' ')
-    .replace(/ ([,.;:)])/g, '$1')
-    .replace(/\( /g, '(')
-    .replace(/([.;:])(?=[A-Z])/g, '$1 ')
-    .trim();
+  const text = String(value ?? '');
+  const parts: string[] = [];
+  let last = ''; // the last character written
+  let space = false; // whitespace seen since it
+  let start = 0; // the start of the run of characters not yet written
+  for (let i = 0; i < text.length; i++) {
+    const code = text.charCodeAt(i);
+    const white =
+      code <= 32 ? code === 32 || (code >= 9 && code <= 13) : code > 127 && WHITE.test(text[i]!);
+    if (white) {
+      if (start < i) parts.push(text.slice(start, i));
+      start = i + 1;
+      space = last !== '';
+      continue;
+    }
+    const ch = text[i]!;
+    if (space) {
+      if (!CLOSING.includes(ch) && last !== '(') parts.push(' ');
+    } else if (code >= 65 && code <= 90 && (last === '.' || last === ';' || last === ':')) {
+      if (start < i) parts.push(text.slice(start, i));
+      start = i;
+      parts.push(' ');
+    }
+    space = false;
+    last = ch;
+  }
+  if (start < text.length) parts.push(text.slice(start));
+  return parts.join('');
 }
+const WHITE = /\s/;
+const CLOSING = ',.;:)';
+
+/** What nunjucks gives a filter as `this`: the render's context. */
+type FilterThis = { lookup(name: string): { md?: boolean } | undefined };
 
 /** First letter up, the rest untouched (unlike nunjucks' capitalize, which would spoil "PaCO2"). */
 export function sentenceCase(value: unknown): string {
@@ -117,6 +151,23 @@ export function createNoteRenderer(options: { templateDir?: string | null } = {}
     lstripBlocks: true,
   });
   env.addFilter('para', paragraph);
+  // the layout blocks of format.njk as filters: {% filter bullet %}...{% endfilter %} prints "- text" or nothing
+  env.addFilter('bullet', (body: unknown) => {
+    const text = paragraph(body);
+    return text ? `- ${text}\n` : '';
+  });
+  env.addFilter('paragraph', (body: unknown) => {
+    const text = paragraph(body);
+    return text ? `${text}\n\n` : '';
+  });
+  env.addFilter('section', function (this: FilterThis, body: unknown, title: string) {
+    const text = String(body ?? '').trim();
+    return text ? `${this.lookup('v')?.md ? `## ${title}` : title.toUpperCase()}\n${text}\n\n` : '';
+  });
+  env.addFilter('subsection', function (this: FilterThis, body: unknown, title: string) {
+    const text = String(body ?? '').trim();
+    return text ? `${this.lookup('v')?.md ? `### ${title}` : `${title}:`}\n${text}\n\n` : '';
+  });
   env.addFilter('sentence', sentenceCase);
   // nunjucks' own trim is a regular expression whose end anchor rescans long text; the native trim is the same rule
   env.addFilter('trim', (value: unknown) => String(value ?? '').trim());
@@ -137,7 +188,8 @@ export function createNoteRenderer(options: { templateDir?: string | null } = {}
   // read and compile everything now, the department's files and the defaults alike
   for (const dir of searchPaths) for (const name of templateFiles(dir)) env.getTemplate(name, true);
   const line = env.getTemplate(ENTRY.line, true);
-  const note = env.getTemplate(ENTRY.note, true);
+  const text = env.getTemplate(ENTRY.text, true);
+  const note = env.getTemplate(ENTRY.full, true);
   const handover = env.getTemplate(ENTRY.handover, true);
   const flagMessage = new nunjucks.Template(FLAG_MESSAGE_SOURCE, env, 'flag-message', true);
 
@@ -152,12 +204,10 @@ export function createNoteRenderer(options: { templateDir?: string | null } = {}
         throw new TypeError(`Unknown note format "${String(format)}": use "text" or "markdown"`);
       const v = buildView(findings, format);
       const oneLine = paragraph(run(line, { v }));
-      const full = tidy(run(note, { v, line: oneLine }));
       return {
         line: oneLine,
-        // the short chart-ready note is still to be written: until then the chart-ready text is the full note
-        text: full,
-        full,
+        text: tidy(run(text, { v, line: oneLine })),
+        full: tidy(run(note, { v, line: oneLine })),
         handover: tidy(run(handover, { v })),
         format,
       };

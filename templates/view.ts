@@ -15,7 +15,8 @@ import {
   referenceView,
 } from './viewAcidBase.ts';
 import { oxygenationView, venousView } from './viewOxygen.ts';
-import { trendView, ventilationView } from './viewVentilation.ts';
+import { ventilationView } from './viewVentilation.ts';
+import { trendView } from './viewTrend.ts';
 import { planView } from './viewPlan.ts';
 
 export type { NoteFormat } from './viewShared.ts';
@@ -130,6 +131,7 @@ export function buildView(f: Findings, format: NoteFormat) {
           ventilation: [],
         },
     trend,
+    conditions: c.context.conditions,
     patient: {
       age: fmt.withUnit(c.patient.ageYears, 0, 'years'),
       pregnant: c.patient.pregnant,

@@ -1,25 +1,5 @@
-// The ventilation part of the note's view model, and what changed since the last gas.
-import type { Findings } from '../calc/index.ts';
-import type { Formatter, Text } from './format.ts';
-import { co2Label, o2Label } from './flagView.ts';
-import { type Ctx, freeText, has } from './viewShared.ts';
-
-type GasField = 'ph' | 'pco2' | 'hco3' | 'po2' | 'lactate';
-
-function gasText(fmt: Formatter, field: GasField, value: number | null | undefined): Text {
-  if (!has(value)) return null;
-  if (field === 'ph') return fmt.ph(value);
-  if (field === 'pco2' || field === 'po2') return fmt.pressure(value);
-  return fmt.mmol(value);
-}
-
-/** The same value without its unit, for "61 to 48 mmHg". */
-function gasNumber(fmt: Formatter, field: GasField, value: number | null | undefined): Text {
-  if (!has(value)) return null;
-  if (field === 'ph') return fmt.ph(value);
-  if (field === 'pco2' || field === 'po2') return fmt.pressureNumber(value);
-  return fmt.plain(value, 1);
-}
+// The ventilation part of the note's view model.
+import { type Ctx, has } from './viewShared.ts';
 
 export function ventilationView({ f, fmt, withheld }: Ctx) {
   const c = f.case;
@@ -121,57 +101,4 @@ export function ventilationView({ f, fmt, withheld }: Ctx) {
       : null;
 
   return ventilation;
-}
-
-export function trendView({ f, fmt, withheld, md }: Ctx) {
-  const c = f.case;
-  const last = f.previous.at(-1);
-  const trend =
-    last && f.changes.length && !withheld
-      ? {
-          when: freeText(
-            [last.label, last.takenAt?.replace('T', ' ') ?? null].filter(Boolean).join(', ') ||
-              null,
-            md,
-          ),
-          items: f.changes.map((x) => ({
-            label:
-              x.field === 'ph'
-                ? 'pH'
-                : x.field === 'pco2'
-                  ? co2Label(c.sample)
-                  : x.field === 'hco3'
-                    ? 'HCO3'
-                    : x.field === 'po2'
-                      ? o2Label(c.sample)
-                      : 'lactate',
-            from: gasNumber(fmt, x.field, x.from),
-            to: gasText(fmt, x.field, x.to),
-            change:
-              x.change === 0
-                ? null
-                : `${x.change > 0 ? '+' : '-'}${gasText(fmt, x.field, Math.abs(x.change))}`,
-          })),
-          ventilator: serialView(f, fmt),
-        }
-      : null;
-
-  return trend;
-}
-
-/** The ventilator change between the two gases and what the alveolar ventilation equation predicted. */
-function serialView(f: Findings, fmt: Formatter) {
-  const serial = f.serial;
-  const v = f.case.ventilator;
-  if (!serial?.ventilatorChanged || !v) return null;
-  const last = serial.last;
-  const p = serial.prediction;
-  return {
-    before: `RR ${fmt.plain(last.rr, 0)}/min, VT ${fmt.plain(last.vt, 0)} mL`,
-    now: `RR ${fmt.plain(v.rr, 0)}/min, VT ${fmt.plain(v.vt, 0)} mL`,
-    predicted: p ? fmt.pressure(p.predicted) : null,
-    observed: p ? fmt.pressure(p.observed) : null,
-    verdict: p ? p.verdict : null,
-    unavailable: serial.predictionUnavailable,
-  };
 }

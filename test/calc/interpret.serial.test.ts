@@ -130,3 +130,45 @@ describe('gases in time order (one function for the note, the chart and the page
     expect(f.changes.find((x) => x.field === 'pco2')?.from).toBe(50);
   });
 });
+
+describe('what changed in the settings, and whether the target was reached', () => {
+  it('lists only the settings known at both gases that differ, rate first', () => {
+    const f = read({
+      ...after(41, 7.38, 23.8),
+      previous: [{ ...before, oxygen: { fio2: 0.5, peep: 8 } }],
+    });
+    // RR 14 -> 20 and FiO2 0.5 -> 0.4 changed; VT 480 and PEEP 8 did not
+    expect(f.serial?.settingChanges).toEqual([
+      { field: 'rr', from: 14, to: 20 },
+      { field: 'fio2', from: 0.5, to: 0.4 },
+    ]);
+  });
+
+  it('a setting not recorded at the earlier gas is not a change', () => {
+    expect(read(after(41, 7.38, 23.8)).serial?.settingChanges).toEqual([
+      { field: 'rr', from: 14, to: 20 },
+    ]);
+  });
+
+  // "at target": within 0.02 of a target pH or 2 mmHg of a target PaCO2 (common practice, from memory)
+  it.each([
+    [7.38, 7.4, true],
+    [7.42, 7.4, true],
+    [7.37, 7.4, false],
+  ])('pH %s against a target pH %s: reached %s', (ph, targetPh, reached) => {
+    const c = after(41, ph, 23.8);
+    const f = read({ ...c, ventilator: { ...c.ventilator, targetPh } });
+    expect(f.serial?.target).toEqual({ kind: 'ph', value: targetPh, reached });
+  });
+
+  it('a target PaCO2 is judged when no target pH is set', () => {
+    const c = after(43, 7.36, 23.8);
+    const f = read({ ...c, ventilator: { ...c.ventilator, targetPco2: 40 } });
+    // 43 is 3 mmHg from 40, beyond the 2 mmHg counted as at target
+    expect(f.serial?.target).toEqual({ kind: 'pco2', value: 40, reached: false });
+  });
+
+  it('no target set: nothing to judge', () => {
+    expect(read(after(41, 7.38, 23.8)).serial?.target).toBeNull();
+  });
+});

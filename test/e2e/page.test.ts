@@ -167,7 +167,8 @@ describe.skipIf(!run)('the step-by-step page in Chromium', () => {
     await page.locator('#draft').waitFor();
     const changed = await noteText(s);
     expect(changed).not.toBe(text);
-    expect(changed).toContain('RR 20/min');
+    // the handover's background carries the settings the gas was taken on
+    expect(await page.locator('#handover-text').inputValue()).toContain('RR 20/min');
     expect(changed).not.toContain('RR 17/min');
     expect(await copyNote(s)).toBe(changed);
 
@@ -349,8 +350,9 @@ describe.skipIf(!run)('the step-by-step page in Chromium', () => {
     const text = await noteText(s);
     expect(text).toBe((await apiNote(h.origin, body)).text);
     expect(text).toMatch(/metabolic acidosis/i);
-    // anion gap 131 - (96 + 8.7) = 26.3 (Kraut and Madias 2007)
-    expect(text).toContain('26.3');
+    // anion gap 131 - (96 + 8.7) = 26.3 (Kraut and Madias 2007), albumin-corrected 26.3 + 2.5 x (4.0 - 3.9) = 26.55,
+    // printed 26.6 (Figge 1998)
+    expect(text).toContain('AG 26.6 mmol/L (albumin-corrected)');
 
     // the explain view: formula, inputs and source of each number
     await page.getByText(/How each number was worked out/).click();

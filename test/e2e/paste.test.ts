@@ -306,8 +306,9 @@ describe.skipIf(!run)('pasting results and following up, in Chromium', () => {
       ).text,
     );
     expect(text).toContain('Since the previous gas (before RR change): pH 7.22 to 7.31');
-    // RR 14 -> 18 at the same VT: 61 x 14 / 18 = 47 mmHg (alveolar ventilation equation, West)
-    expect(text).toContain('predicted a PaCO2 of about 47 mmHg');
+    // the chart-ready note carries the change made; the prediction (61 x 14 / 18 = 47 mmHg, alveolar ventilation
+    // equation, West) is in the full reasoning
+    expect(text).toContain('PaCO2 61 to 49 mmHg after RR 14 to 18/min');
     const map = page.locator('#map');
     expect(await map.locator('.gl-gas-marker').count()).toBe(2);
     expect(await map.locator('.gl-gas-step').count()).toBe(1);

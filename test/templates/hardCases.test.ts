@@ -17,8 +17,8 @@ const section = (text: string, heading: string): string => {
   const next = rest.search(/\n[A-Z][A-Z0-9 ()/,-]+\n/);
   return next < 0 ? rest : rest.slice(0, next);
 };
-const interpretation = (n: Note) => section(n.text, 'INTERPRETATION');
-const plan = (n: Note) => section(n.text, 'PLAN (SUGGESTIONS)');
+const interpretation = (n: Note) => section(n.full, 'INTERPRETATION');
+const plan = (n: Note) => section(n.full, 'PLAN (SUGGESTIONS)');
 
 const CASES = {
   // a 72-year-old with COPD, usual pH 7.37, ventilated, the team asks for pH 7.40
@@ -158,8 +158,8 @@ describe('mixed disorders and timing', () => {
     expect(interpretation(n)).toContain(
       'Delta ratio against the HCO3 of 31.0 mmol/L that the chronic respiratory rule expects: 1.56 (0.8 to 2)',
     );
-    expect(n.text).not.toMatch(/Added metabolic alkalosis|Metabolic alkalosis:/);
-    expect(n.text).not.toMatch(/is the stated timing right/);
+    expect(n.full).not.toMatch(/Added metabolic alkalosis|Metabolic alkalosis:/);
+    expect(n.full).not.toMatch(/is the stated timing right/);
     expect(interpretation(n)).toMatch(/below it, which the raised-AG acidosis explains/);
     expect(plan(n)).not.toMatch(/urine chloride/);
     expect(interpretation(n)).toMatch(/Urine values were given but are not read here/);
@@ -171,7 +171,7 @@ describe('mixed disorders and timing', () => {
     expect(n.line).toMatch(
       /: raised-AG metabolic acidosis, compensation as expected; .*delta ratio 1.15/,
     );
-    expect(n.text).not.toMatch(/normal-AG/);
+    expect(n.full).not.toMatch(/normal-AG/);
   });
 
   it('timing unknown with a raised gap: the timing is not read, and the delta ratio is given both ways', () => {
@@ -198,18 +198,18 @@ describe('metabolic alkalosis near its ceiling; urine tests', () => {
     const n = note(CASES.vomiting);
     expect(n.line).toMatch(/: metabolic alkalosis, compensation near its limit;/);
     expect(interpretation(n)).toMatch(/seldom takes PaCO2 above about 55-60 mmHg/);
-    expect(n.text).not.toMatch(/Added respiratory alkalosis/);
+    expect(n.full).not.toMatch(/Added respiratory alkalosis/);
     expect(interpretation(n)).toMatch(
       /Urine chloride 8 mmol\/L: below 20 mmol\/L, a chloride-responsive/,
     );
-    expect(n.text).not.toMatch(/Urine anion gap -?\d/);
+    expect(n.full).not.toMatch(/Urine anion gap -?\d/);
   });
 });
 
 describe('altitude', () => {
   it('a resident at 3,600 m: a low inspired PO2, not type 1 failure, and no oxygen bullet in the plan', () => {
     const n = note(CASES.altitude);
-    const oxygenation = section(n.text, 'OXYGENATION');
+    const oxygenation = section(n.full, 'OXYGENATION');
     expect(oxygenation).not.toMatch(/respiratory failure \(below 60 mmHg\), type 1/);
     expect(oxygenation).toMatch(
       /explained by the altitude, not by lung disease, so it is not type 1/,
@@ -262,7 +262,7 @@ describe('osmolar gap with a measured ethanol', () => {
     );
     expect(plan(n)).toMatch(/antidote \(fomepizole, or ethanol\) and haemodialysis/);
     expect(plan(n)).toMatch(/already counted in the calculated osmolality/);
-    expect(n.text).not.toMatch(/ethanol[^.]*also widen/);
+    expect(n.full).not.toMatch(/ethanol[^.]*also widen/);
   });
 });
 
@@ -278,7 +278,7 @@ describe('a "normal" PaCO2 that is not normal', () => {
 describe('wording', () => {
   it('albumin 4.0 g/dL: the gap is said once, not "37.1, 37.1 corrected"', () => {
     const n = note(CASES.albuminNormal);
-    expect(n.text).not.toMatch(/37.1 mmol\/L, 37.1 mmol\/L corrected/);
+    expect(n.full).not.toMatch(/37.1 mmol\/L, 37.1 mmol\/L corrected/);
     expect(interpretation(n)).toMatch(
       /Anion gap 37.1 mmol\/L \(albumin 4.0 g\/dL, so the albumin correction does not change it\)/,
     );
@@ -286,18 +286,18 @@ describe('wording', () => {
 
   it('no albumin: no "albumin-corrected" anywhere; a gap within the limit: no delta ratio anywhere', () => {
     const n = note(CASES.diarrhoea);
-    expect(n.text).not.toMatch(/albumin-corrected|corrected for albumin/);
+    expect(n.full).not.toMatch(/albumin-corrected|corrected for albumin/);
     // AG 137 - (114 + 13.3) = 9.7, not raised (Kraut and Madias 2007): no ratio such as -0.21
-    expect(n.text).not.toMatch(/delta ratio/i);
+    expect(n.full).not.toMatch(/delta ratio/i);
   });
 
   it('one format per kind of figure: the same lactate reads the same in the line, the note and the cautions', () => {
     const n = note(CASES.albuminNormal);
     expect(n.line).toContain('lactate 11.0 mmol/L');
     expect(interpretation(n)).toContain('Lactate 11.0 mmol/L');
-    expect(section(n.text, 'CAUTIONS')).toContain('lactate 11.0 mmol/L');
+    expect(section(n.full, 'CAUTIONS')).toContain('lactate 11.0 mmol/L');
     // every HCO3 figure with one decimal (the table of fields reports HCO3 to 0.1 mmol/L)
-    for (const m of n.text.matchAll(/HCO3 (?:of )?(-?\d+(?:\.\d+)?) mmol\/L/g))
+    for (const m of n.full.matchAll(/HCO3 (?:of )?(-?\d+(?:\.\d+)?) mmol\/L/g))
       expect(m[1], m[0]).toMatch(/\.\d$/);
   });
 });

@@ -7,7 +7,7 @@ export const LEAKS = /\b(undefined|null|NaN|Infinity)\b|\[object Object\]/;
 
 /** The cautions every note carries (clinical-scope section 9), by a phrase of each. */
 export const CAUTION_PHRASES = [
-  /licensed clinicians/i,
+  /licensed clinician/i,
   /air bubbles/i,
   /delay to analysis/i,
   /temperature correction/i,
@@ -89,6 +89,7 @@ export function noteProblems(note: Note): string[] {
   for (const [part, text] of [
     ['line', note.line],
     ['text', note.text],
+    ['full', note.full],
     ['handover', note.handover],
   ] as const) {
     if (!text.trim()) problems.push(`${part} is empty`);
@@ -101,8 +102,10 @@ export function noteProblems(note: Note): string[] {
     for (const n of unitlessNumbers(text)) problems.push(`${part}: number without a unit: ${n}`);
   }
   if (note.line.includes('\n')) problems.push('line spans more than one line');
-  for (const phrase of CAUTION_PHRASES)
+  for (const phrase of CAUTION_PHRASES) {
     if (!phrase.test(note.text)) problems.push(`text lacks the caution ${phrase}`);
+    if (!phrase.test(note.full)) problems.push(`full lacks the caution ${phrase}`);
+  }
   if (!/decision support/i.test(note.handover)) problems.push('handover lacks its caution line');
   return problems;
 }

@@ -29,28 +29,28 @@ const followUp = (pco2: number, ph: number, hco3: number, extra: object = {}) =>
 
 describe('follow-up gas in the note', () => {
   it('says what changed and by how much', () => {
-    const text = renderer.render(followUp(41, 7.38, 23.8)).text;
+    const text = renderer.render(followUp(41, 7.38, 23.8)).full;
     expect(text).toContain(
       'Since the previous gas (2026-05-10 02:00): pH 7.26 to 7.38 (+0.12), PaCO2 58 to 41 mmHg (-17 mmHg)',
     );
   });
 
   it('a PaCO2 as predicted (58 x 14 / 20 = 40.6 mmHg) is said to match', () => {
-    const text = renderer.render(followUp(41, 7.38, 23.8)).text;
+    const text = renderer.render(followUp(41, 7.38, 23.8)).full;
     expect(text).toContain(
       'predicted a PaCO2 of about 41 mmHg, and the measured 41 mmHg matches it',
     );
   });
 
   it('a higher PaCO2 names the likely reasons', () => {
-    const text = renderer.render(followUp(49, 7.31, 24.3)).text;
+    const text = renderer.render(followUp(49, 7.31, 24.3)).full;
     expect(text).toMatch(
       /measured 49 mmHg is higher: CO2 production may have risen .* dead space increased/,
     );
   });
 
   it('a lower PaCO2 names the likely reasons', () => {
-    expect(renderer.render(followUp(33, 7.47, 23.4)).text).toMatch(
+    expect(renderer.render(followUp(33, 7.47, 23.4)).full).toMatch(
       /is lower: CO2 production may have fallen/,
     );
   });
@@ -65,7 +65,7 @@ describe('follow-up gas in the note', () => {
       ventilator: { vt: 480, rr: 20 },
       previous: [{ ...before, gas: { ...before.gas, pco2: kpa(58) } }],
     });
-    const text = renderer.render(f).text;
+    const text = renderer.render(f).full;
     expect(text).toContain('predicted a PaCO2 of about 5.4 kPa');
     expect(text).not.toMatch(/\d mmHg/);
   });

@@ -56,7 +56,9 @@ describe('the page', () => {
           const view = flowView(state, deps, p);
           const fragment = renderFragment(view);
           if (state.done.length === STEP_IDS.length && p === presentations[0]![1])
-            expect(fragment).toContain(state.format === 'markdown' ? '## Cautions' : 'CAUTIONS');
+            expect(fragment).toContain(
+              'Decision support for the licensed clinician who signs this note',
+            );
           const page = renderPage(view);
           for (const html of [fragment, page]) {
             expect(html).not.toContain('<script>alert(1)');
