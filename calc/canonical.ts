@@ -117,7 +117,8 @@ export function canonicalize(c: ParsedCase): CanonicalCase {
     patient: {
       ...valuesOf('patient', c.patient, units),
       sex: c.patient?.sex ?? null,
-      pregnant: c.patient?.pregnant === true,
+      // weeks of pregnancy say the patient is pregnant (the schema refuses weeks with "not pregnant")
+      pregnant: c.patient?.pregnant === true || known(c.patient?.pregnancyWeeks),
     },
     context: {
       ...valuesOf('context', context, units),

@@ -174,6 +174,20 @@ export const FIELDS = [
       L('20509-6', 'blood', 'Hemoglobin [Mass/volume] in Blood by calculation'), // checked: VSAC 2.16.840.1.113762.1.4.1248.219
     ],
   },
+  {
+    // common practice; a percent of total haemoglobin (CO-oximetry)
+    path: 'gas.cohb', label: 'COHb', unit: '%', range: [0, 80], decimals: 1, percent: true, ucum: PERCENT,
+    step: 'gas', optional: true,
+    printed: [P('F?COHb|HbCO|carboxyh(?:a)?emoglobin', { anyCase: true })],
+    loinc: [L('20563-3', 'blood', 'Carboxyhemoglobin/Hemoglobin.total in Blood')], // from memory
+  },
+  {
+    // common practice; a percent of total haemoglobin (CO-oximetry)
+    path: 'gas.methb', label: 'MetHb', unit: '%', range: [0, 80], decimals: 1, percent: true, ucum: PERCENT,
+    step: 'gas', optional: true,
+    printed: [P('F?MetHb|methaemoglobin|methemoglobin', { anyCase: true })],
+    // no LOINC code: none at hand that could be checked (a code from memory failed the check digit)
+  },
   // ---------- chemistry ----------
   {
     path: 'chemistry.na', label: 'Na', unit: 'mmol/L', range: [90, 200], decimals: 0, charge: 1, ucum: MMOL, step: 'chemistry',
@@ -330,6 +344,14 @@ export const FIELDS = [
   { path: 'ventilator.rr', label: 'RR', unit: '/min', range: [1, 80], decimals: 0, step: 'ventilator' },
   // common practice
   { path: 'ventilator.pplat', label: 'Plateau pressure', unit: 'cmH2O', range: [5, 60], decimals: 0, step: 'ventilator' },
+  {
+    // common practice; same pressure unit as PaCO2 (interface contract)
+    path: 'ventilator.etco2', label: 'EtCO2', ask: 'End-tidal CO2', unit: 'mmHg', quantity: 'pressure', range: [5, 150],
+    decimals: 0, step: 'ventilator',
+    loinc: [L('19889-5', 'none', 'Carbon dioxide/Gas.total.at end expiration in Exhaled gas')], // from memory
+  },
+  // common practice
+  { path: 'ventilator.inspiratoryTime', label: 'Inspiratory time', ask: 'Inspiratory time (Ti)', unit: 's', range: [0.2, 5], decimals: 1, ucum: ['s'], step: 'ventilator' },
   { path: 'ventilator.deadSpaceMl', label: 'Apparatus dead space', unit: 'mL', range: [0, 500], decimals: 0 },
   { path: 'ventilator.deadSpaceFraction', label: 'VD/VT', unit: '', range: [0.1, 0.9], decimals: 2 },
   { path: 'ventilator.targetPh', label: 'Target pH', unit: '', range: [7.0, 7.6], decimals: 2, step: 'ventilator', optional: true },
@@ -340,6 +362,8 @@ export const FIELDS = [
   // ---------- patient ----------
   { path: 'patient.heightCm', label: 'Height', unit: 'cm', range: [100, 250], decimals: 0, step: 'ventilator' },
   { path: 'patient.ageYears', label: 'Age', unit: 'years', range: [0, 120], decimals: 0, step: 'patient' },
+  // common practice (weeks of gestation); a number of weeks says the patient is pregnant
+  { path: 'patient.pregnancyWeeks', label: 'Weeks of pregnancy', ask: 'Weeks of pregnancy, if pregnant', unit: 'weeks', range: [1, 44], decimals: 0, step: 'patient', optional: true },
   // ---------- settings (a department's or a clinician's) ----------
   { path: 'settings.anionGapNormal', label: 'Anion gap reference', unit: 'mmol/L', range: [0, 30], decimals: 0 },
   { path: 'settings.anionGapHalfWidth', label: 'Anion gap half-width', unit: 'mmol/L', range: [1, 10], decimals: 0 },

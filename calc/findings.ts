@@ -11,6 +11,7 @@ import type { DeltaReading } from './deltaReference.ts';
 import type { GlucoseReading } from './readGlucose.ts';
 import type { LactateBand } from './osmolality.ts';
 import type { OxygenationLevel, PfBand } from './oxygenation.ts';
+import type { Spo2Target } from './oxygenTargets.ts';
 import type { Flag } from './flags.ts';
 import type { Explanation } from './explain.ts';
 import type { Units } from './units.ts';
@@ -63,6 +64,17 @@ export const DERIVED_NUMBERS = [
   'suggestedVt',
   'suggestedVtPerKgPbw',
   'predictedPco2',
+  'compliance',
+  'expiratoryTime',
+  'suggestedExpiratoryTime',
+  'predictedPlateau',
+  'predictedDrivingPressure',
+  'alveolarDeadSpaceFraction',
+  'bestRr',
+  'bestVt',
+  'bestPco2',
+  'bestPh',
+  'saturationGap',
 ] as const;
 export type DerivedNumber = (typeof DERIVED_NUMBERS)[number];
 
@@ -106,6 +118,17 @@ export interface Metabolic {
 }
 
 export interface Oxygenation {
+  /** the SpO2 target band (BTS 2017) and the saturation judged against it */
+  target: Spo2Target | null;
+  saturation: { value: number; source: 'spo2' | 'sao2' } | null;
+  aboveTarget: boolean;
+  belowTarget: boolean;
+  /** P/F below 150 on FiO2 0.6 or more with PEEP 5 or more (PROSEVA) */
+  severeHypoxaemia: boolean;
+  /** the 2012 or 2024 ARDS oxygenation criterion is met (PEEP 5 or more with P/F 300 or less, or S/F) */
+  ardsCriterionMet: boolean;
+  /** gas exchange impaired: a raised A-a gradient on room air, or P/F 300 or less on oxygen */
+  gasExchangeImpaired: boolean;
   assessable: boolean;
   reason: 'venous' | 'capillary' | null;
   barometricSource: 'entered' | 'altitude' | 'sea_level';
@@ -123,14 +146,58 @@ export interface Oxygenation {
   pfBandFrom: 'measured' | 'altitude_adjusted' | null;
 }
 
+/** Why a route to the target is not offered. */
+export type RouteLimit =
+  | 'rr_above_35'
+  | 'no_expiratory_time'
+  | 'vt_above_8_ml_per_kg'
+  | 'vt_below_4_ml_per_kg'
+  | 'plateau_above_30'
+  | 'driving_pressure_above_15';
+
+/** One way to the target: RR at unchanged VT, or VT at unchanged RR. */
+export interface Route {
+  value: number;
+  /** within every limit that could be checked */
+  offered: boolean;
+  limits: RouteLimit[];
+  /** the checks that could not be made for want of an input */
+  unchecked: ('per_kg' | 'plateau')[];
+}
+
+/** The best setting within the limits when no single route reaches the target (clinical-scope section 10). */
+export interface BestSetting {
+  rr: number;
+  vt: number;
+  pco2: number;
+  ph: number | null;
+  /** the combination reaches the target (then rr is the rate it needs at this VT) */
+  reachesTarget: boolean;
+  /** the limit that holds the VT: per kg, plateau or driving pressure (null: VT unchanged, no PBW) */
+  vtLimitedBy: 'per_kg' | 'plateau' | 'driving_pressure' | null;
+}
+
 export interface Ventilation {
   ventilated: boolean;
-  deadSpaceSource: 'measured_fraction' | 'estimated' | null;
+  deadSpaceSource: 'measured_fraction' | 'end_tidal' | 'estimated' | null;
   targetSource: 'target_pco2' | 'target_ph' | null;
   targetForm: 'acute_buffering' | 'as_given' | null;
+  /** what the target used is: as requested, Winters' compensation, or the patient's usual PaCO2 */
+  targetBasis: 'requested' | 'compensation' | 'usual' | null;
+  /** the requested target, when another one is used in its place */
+  requestedTarget: N;
   recheckMinutes: { low: number; high: number };
   compensationTarget: Band | null;
   usualPco2: N;
+  /** obstructive disease: known asthma or COPD, or a high PaCO2 with a high plateau */
+  obstruction: 'asthma' | 'copd' | 'pressures' | null;
+  rrRoute: Route | null;
+  vtRoute: Route | null;
+  best: BestSetting | null;
+  /** the step of the ARDS Network pH protocol that applies when lung-protective limits hold the PaCO2 up */
+  ardsnetStep: 'goal' | 'raise_rr' | 'bicarbonate' | null;
+  /** a metabolic acidosis the ventilator cannot compensate within limits: the levers beyond it */
+  beyondVentilator: { bicarbonate: boolean } | null;
 }
 
 export interface Venous {

@@ -34,7 +34,17 @@ export type FlagCode =
   | 'hyperosmolar_state'
   | 'potassium_before_insulin'
   | 'pf_adjusted_for_altitude'
-  | 'low_inspired_po2';
+  | 'low_inspired_po2'
+  | 'suggested_vt_pressure_limits'
+  | 'air_trapping_risk'
+  | 'compensation_beyond_ventilator'
+  | 'ph_below_ardsnet_goal'
+  | 'spo2_above_target'
+  | 'severe_hypoxaemia'
+  | 'cohb_raised'
+  | 'methb_raised'
+  | 'saturation_gap'
+  | 'etco2_above_paco2';
 
 export type Severity = 'critical' | 'warning' | 'info';
 

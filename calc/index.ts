@@ -11,7 +11,10 @@ export type {
   Metabolic,
   Oxygenation,
   PreviousGas,
+  BestSetting,
   Rejected,
+  Route,
+  RouteLimit,
   Serial,
   Venous,
   Ventilation,
@@ -55,6 +58,7 @@ export type {
   PhStatus,
 } from './classify.ts';
 export type { ReferencePoint, UsualPoint } from './referencePoint.ts';
+export type { Spo2Target, TargetBasis } from './oxygenTargets.ts';
 export { CONDITIONS, type Condition } from './conditions.ts';
 export type { DeltaBasis, DeltaPoint, DeltaReading } from './deltaReference.ts';
 export type { GlucoseReading } from './readGlucose.ts';
@@ -66,13 +70,17 @@ export { SOURCES, type SourceKey } from './sources.ts';
 export * as acidBase from './acidBase.ts';
 export * as anionGap from './anionGap.ts';
 export * as classification from './classify.ts';
+export * as coOximetry from './coOximetry.ts';
 export * as compensation from './compensation.ts';
+export * as deadSpace from './deadSpace.ts';
 export * as deltaReference from './deltaReference.ts';
 export * as glucose from './glucose.ts';
 export * as hypoventilation from './hypoventilation.ts';
+export * as mechanics from './mechanics.ts';
 export * as referencePoints from './referencePoint.ts';
 export * as osmolality from './osmolality.ts';
 export * as oxygenation from './oxygenation.ts';
+export * as oxygenTargets from './oxygenTargets.ts';
 export * as physicochemical from './physicochemical.ts';
 export * as reference from './reference.ts';
 export * as units from './units.ts';

@@ -34,6 +34,7 @@ import { anionGapPart, deltaPart, emptyMetabolic, otherMetabolic } from './readM
 import { explainCompensation, explainUsual, hypoventilationFlags } from './readAcidBase.ts';
 import { notAssessed, oxygenationPart, venousPart } from './readOxygenation.ts';
 import { ventilationPart } from './readVentilation.ts';
+import { saturationPart } from './readSaturation.ts';
 import { changesSince, inTimeOrder, serialPart } from './readSerial.ts';
 
 const P = 'mmHg';
@@ -245,6 +246,7 @@ function readCase(c: CanonicalCase): Findings {
 
   otherMetabolic(c, sbe, book, metabolic, flags, classification.disorders);
   const oxygenation = oxygenationPart(c, book, flags);
+  saturationPart(c, reference, book, flags, oxygenation);
   const venous = venousPart(c, flags);
   const { ventilation, deadSpace } = ventilationPart(c, book, flags, classification, reference);
   criticalFlags(c, flags, false);

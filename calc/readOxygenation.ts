@@ -1,6 +1,6 @@
 // The oxygenation part of a reading (arterial samples only), and what a venous or capillary sample can show.
 import type { CanonicalCase } from './canonical.ts';
-import { OXYGENATION, PHYSIOLOGY, VENOUS } from './reference.ts';
+import { OXYGENATION, PHYSIOLOGY, SEVERE_HYPOXAEMIA, VENOUS } from './reference.ts';
 import {
   aaGradient,
   alveolarPo2,
@@ -21,6 +21,13 @@ const P = 'mmHg';
 
 export function notAssessed(c: CanonicalCase): Oxygenation {
   return {
+    target: null,
+    saturation: null,
+    aboveTarget: false,
+    belowTarget: false,
+    severeHypoxaemia: false,
+    ardsCriterionMet: false,
+    gasExchangeImpaired: false,
     assessable: false,
     reason: c.sample === 'arterial' ? null : c.sample,
     barometricSource: 'sea_level',
@@ -80,6 +87,7 @@ export function oxygenationPart(c: CanonicalCase, book: Book, flags: Flag[]): Ox
       source: 'ardsGlobal2024',
     });
     o.sfMeetsCriterion = sfMeetsCriterion(spo2, sf);
+    o.ardsCriterionMet = o.sfMeetsCriterion === true;
   }
   if (c.sample !== 'arterial') {
     flags.push(flag('oxygenation_not_assessable', 'info', { sample: c.sample }));
@@ -147,6 +155,7 @@ export function oxygenationPart(c: CanonicalCase, book: Book, flags: Flag[]): Ox
     });
     if (roomAir) {
       o.aaRaised = gradient > expected;
+      o.gasExchangeImpaired = o.aaRaised;
       o.lowInspiredOrHypoventilation = o.level !== 'normal' && !o.aaRaised;
       if (atAltitude) lowInspiredPo2(c, o, { pb, alveolar, gradient }, flags);
     } else flags.push(flag('aa_reference_room_air_only', 'info', { fio2 }));
@@ -162,6 +171,9 @@ export function oxygenationPart(c: CanonicalCase, book: Book, flags: Flag[]): Ox
   o.pfBandApplies = has(peep) && peep >= OXYGENATION.pfMinimumPeep;
   o.pfBand = pfBand(pf);
   o.pfBandFrom = 'measured';
+  // on oxygen the age-expected gradient does not hold; a P/F of 300 or less shows impaired gas exchange (Berlin)
+  if (!roomAir && pf <= OXYGENATION.pfMild) o.gasExchangeImpaired = true;
+  severeHypoxaemia(pf, fio2, peep, o, flags);
   // Berlin definition: below sea-level pressure the oxygenation criterion uses P/F x PB/760
   if (atAltitude) {
     const adjusted = record(book, 'pfRatioAdjusted', pf * (pb / PHYSIOLOGY.seaLevelMmHg), {
@@ -174,6 +186,7 @@ export function oxygenationPart(c: CanonicalCase, book: Book, flags: Flag[]): Ox
     });
     o.pfBand = pfBand(adjusted);
     o.pfBandFrom = 'altitude_adjusted';
+    o.ardsCriterionMet ||= o.pfBandApplies && o.pfBand !== 'none';
     flags.push(
       flag('pf_adjusted_for_altitude', 'info', {
         pfRatio: round(pf, 0),
@@ -184,7 +197,23 @@ export function oxygenationPart(c: CanonicalCase, book: Book, flags: Flag[]): Ox
       }),
     );
   }
+  if (!atAltitude) o.ardsCriterionMet ||= o.pfBandApplies && o.pfBand !== 'none';
   return o;
+}
+
+// P/F below 150 on FiO2 0.6 or more with PEEP 5 or more: prone positioning 16 h a day or more (PROSEVA 2013)
+function severeHypoxaemia(
+  pf: number,
+  fio2: number,
+  peep: number | null,
+  o: Oxygenation,
+  flags: Flag[],
+) {
+  const S = SEVERE_HYPOXAEMIA;
+  o.severeHypoxaemia =
+    pf < S.pfBelow && fio2 >= S.fio2AtLeast && has(peep) && peep >= S.peepAtLeast;
+  if (o.severeHypoxaemia)
+    flags.push(flag('severe_hypoxaemia', 'warning', { pfRatio: round(pf, 0), fio2, peep }));
 }
 
 // Below sea-level pressure, hypoxaemia with a normal A-a gradient and no hypercapnia is the low inspired PO2 of

@@ -1,12 +1,9 @@
 // The ventilation part of a reading: PBW, VT per kg, pressures, dead space, the target PaCO2 and the settings to
 // reach it.
 import type { CanonicalCase } from './canonical.ts';
-import { FIELD } from './fields.ts';
 import { NORMAL, VENTILATION } from './reference.ts';
-import { hydrogenIon } from './acidBase.ts';
-import { wintersPco2 } from './compensation.ts';
 import type { Classification } from './classify.ts';
-import { usualPco2, type ReferencePoint } from './referencePoint.ts';
+import type { ReferencePoint } from './referencePoint.ts';
 import {
   alveolarVentilation,
   co2ProductionEstimate,
@@ -14,13 +11,13 @@ import {
   estimatedDeadSpace,
   minuteVentilation,
   predictedBodyWeight,
-  rrForTarget,
-  targetPco2Buffered,
-  targetPco2Simple,
   ventilatoryRatio,
-  vtForTarget,
   vtPerKg,
 } from './ventilation.ts';
+import { compliance, expiratoryTime } from './mechanics.ts';
+import { alveolarDeadSpaceFraction, physiologicalDeadSpace } from './deadSpace.ts';
+import { routesPart } from './readVentilationRoutes.ts';
+import { targetInUse, targetOf } from './readVentilationTarget.ts';
 import { flag, type Flag } from './flags.ts';
 import { input, record, round } from './explain.ts';
 import { type Book, type N, type Ventilation, has } from './findings.ts';
@@ -84,8 +81,34 @@ function mechanics(c: CanonicalCase, v: Vent, book: Book, flags: Flag[]) {
         );
     }
   }
-  return { pbw, vtPerKgPbw };
+  let crs: N = null;
+  const c0 = has(v.vt) && has(v.pplat) && has(peep) ? compliance(v.vt, v.pplat, peep) : null;
+  if (c0 !== null && has(v.vt) && has(v.pplat) && has(peep))
+    crs = record(book, 'compliance', c0, {
+      label: 'Compliance (respiratory system)',
+      unit: 'mL/cmH2O',
+      decimals: 1,
+      formula: 'Crs = VT / (Pplat - PEEP)',
+      inputs: [
+        input('VT', v.vt, 'mL'),
+        input('Pplat', v.pplat, 'cmH2O'),
+        input('PEEP', peep, 'cmH2O'),
+      ],
+      source: 'mechanics',
+    });
+  if (has(v.rr) && has(v.inspiratoryTime))
+    record(book, 'expiratoryTime', expiratoryTime(v.rr, v.inspiratoryTime), {
+      label: 'Expiratory time',
+      unit: 's',
+      decimals: 1,
+      formula: 'Te = 60 / RR - Ti',
+      inputs: [input('RR', v.rr, '/min'), input('Ti', v.inspiratoryTime, 's')],
+      source: 'expiratoryTime',
+    });
+  return { pbw, vtPerKgPbw, crs };
 }
+
+export type Mechanics = ReturnType<typeof mechanics>;
 
 /** Dead space (a measured VD/VT first, else the anatomic estimate plus apparatus), VE, VA and VCO2. */
 function ventilationVolumes(
@@ -107,6 +130,9 @@ function ventilationVolumes(
       inputs: [input('VD/VT', v.deadSpaceFraction, ''), input('VT', v.vt, 'mL')],
       source: 'west',
     });
+  } else if (pbw !== null && has(v.etco2) && has(v.vt) && endTidalUsable(c, v.etco2, flags)) {
+    out.deadSpaceSource = 'end_tidal';
+    vd = endTidalDeadSpace(c, v.vt, v.etco2, estimatedDeadSpace(pbw, v.deadSpaceMl ?? 0), book);
   } else if (pbw !== null) {
     out.deadSpaceSource = 'estimated';
     vd = record(book, 'deadSpaceMl', estimatedDeadSpace(pbw, v.deadSpaceMl ?? 0), {
@@ -167,147 +193,46 @@ function ventilationVolumes(
   return vd;
 }
 
-/** The target PaCO2 (clinical-scope section 8): as given, or for a target pH with acute buffering. */
-function targetOf(c: CanonicalCase, v: Vent, book: Book, flags: Flag[], out: Ventilation): N {
-  const g = c.gas;
-  if (has(v.targetPco2)) {
-    out.targetSource = 'target_pco2';
-    out.targetForm = 'as_given';
-    return record(book, 'targetPco2', v.targetPco2, {
-      label: 'Target PaCO2 (as given)',
-      unit: P,
-      decimals: 1,
-      formula: 'as entered',
-      inputs: [input('Target PaCO2', v.targetPco2, P)],
-      source: 'commonPractice',
-    });
-  }
-  if (!has(v.targetPh)) {
-    flags.push(flag('no_ventilation_target', 'info', {}));
-    return null;
-  }
-  out.targetSource = 'target_ph';
-  out.targetForm = 'acute_buffering';
-  const hTarget = hydrogenIon(v.targetPh);
-  record(book, 'targetPco2Simple', targetPco2Simple(hTarget, g.hco3), {
-    label: 'Target PaCO2 (HCO3 held constant)',
-    unit: P,
-    decimals: 1,
-    formula: 'PaCO2_t = [H+]_t x HCO3 / 24',
-    inputs: [
-      input('[H+] at target pH', round(hTarget, 1), 'nmol/L'),
-      input('HCO3', g.hco3, 'mmol/L'),
-    ],
-    source: 'henderson',
-  });
-  const target = targetPco2Buffered(hTarget, g.hco3, g.pco2);
-  if (target === null) {
-    flags.push(flag('target_not_reachable', 'warning', { targetPh: v.targetPh }));
-    return null;
-  }
-  // a target below the lowest plausible PaCO2 is not a ventilator setting to suggest
-  if (target < FIELD['ventilator.targetPco2'].range[0]) {
+/** An end-tidal CO2 above the PaCO2 gives no alveolar dead space to use: said, and the estimate kept. */
+function endTidalUsable(c: CanonicalCase, etco2: number, flags: Flag[]): boolean {
+  if (c.sample === 'arterial' && etco2 <= c.gas.pco2) return true;
+  if (c.sample === 'arterial')
     flags.push(
-      flag('target_not_reachable', 'warning', {
-        targetPh: v.targetPh,
-        targetPco2: round(target, 1),
-      }),
+      flag('etco2_above_paco2', 'warning', { etco2: round(etco2, 1), pco2: round(c.gas.pco2, 1) }),
     );
-    return null;
-  }
-  return record(book, 'targetPco2', target, {
-    label: 'Target PaCO2 (acute buffering)',
-    unit: P,
-    decimals: 1,
-    formula: 'PaCO2_t = [H+]_t x (HCO3 - 0.1 x PaCO2) / (24 - 0.1 x [H+]_t)',
-    inputs: [
-      input('Target pH', v.targetPh, ''),
-      input('[H+] at target pH', round(hTarget, 1), 'nmol/L'),
-      input('HCO3', g.hco3, 'mmol/L'),
-      input('PaCO2 now', g.pco2, P),
-    ],
-    source: 'targetPco2',
-  });
+  return false;
 }
 
-/** The RR at unchanged VT and the VT at unchanged RR that should reach the target (West). */
-function routes(
+/** Physiological dead space: the anatomic estimate plus the alveolar dead space the end-tidal CO2 shows. */
+function endTidalDeadSpace(
   c: CanonicalCase,
-  v: Vent,
-  target: number,
-  vd: N,
-  fit: ReturnType<typeof mechanics>,
+  vt: number,
+  etco2: number,
+  anatomic: number,
   book: Book,
-  flags: Flag[],
 ) {
-  if (!has(v.rr) || !has(v.vt)) return;
   const pco2 = c.gas.pco2;
-  const { pbw, vtPerKgPbw } = fit;
-  const rr = record(book, 'suggestedRr', Math.round(rrForTarget(v.rr, pco2, target)), {
-    label: 'RR at unchanged VT',
-    unit: '/min',
-    decimals: 0,
-    formula: 'RR_new = RR x PaCO2 now / PaCO2 target',
-    inputs: [
-      input('RR', v.rr, '/min'),
-      input('PaCO2 now', pco2, P),
-      input('PaCO2 target', target, P),
-    ],
-    source: 'west',
+  record(book, 'alveolarDeadSpaceFraction', alveolarDeadSpaceFraction(pco2, etco2), {
+    label: 'Alveolar dead-space fraction',
+    unit: '',
+    decimals: 2,
+    formula: '(PaCO2 - PetCO2) / PaCO2',
+    inputs: [input('PaCO2', pco2, P), input('PetCO2', etco2, P)],
+    source: 'enghoff',
   });
-  if (rr > VENTILATION.rrMax)
-    flags.push(flag('rr_above_35', 'warning', { which: 'suggested', rr }));
-  let vtPerKgSuggested: N = null;
-  if (vd !== null && v.vt - vd > 0) {
-    const vt = record(
-      book,
-      'suggestedVt',
-      Math.round(vtForTarget(v.vt, vd, pco2, target) / 10) * 10,
-      {
-        label: 'VT at unchanged RR',
-        unit: 'mL',
-        decimals: 0,
-        formula: 'VT_new = VD + (VT - VD) x PaCO2 now / PaCO2 target',
-        inputs: [
-          input('VT', v.vt, 'mL'),
-          input('VD', round(vd, 0), 'mL'),
-          input('PaCO2 now', pco2, P),
-          input('PaCO2 target', target, P),
-        ],
-        source: 'west',
-      },
-    );
-    if (pbw !== null) {
-      vtPerKgSuggested = record(book, 'suggestedVtPerKgPbw', vt / pbw, {
-        label: 'Suggested VT per kg PBW',
-        unit: 'mL/kg',
-        decimals: 1,
-        formula: 'VT_new / PBW',
-        inputs: [input('VT_new', vt, 'mL'), input('PBW', round(pbw, 1), 'kg')],
-        source: 'ardsnet2000',
-      });
-      if (vtPerKgSuggested > VENTILATION.vtHighPerKg)
-        flags.push(
-          flag('vt_above_8_ml_per_kg', 'warning', {
-            which: 'suggested',
-            vt,
-            vtPerKg: round(vtPerKgSuggested, 1),
-          }),
-        );
-    }
-  }
-  const lungProtective = vtPerKgPbw !== null && vtPerKgPbw <= VENTILATION.vtHighPerKg;
-  // permissive hypercapnia is worth weighing only when neither route reaches the target within limits
-  const hardToReach =
-    rr > VENTILATION.rrMax &&
-    (vtPerKgSuggested === null || vtPerKgSuggested > VENTILATION.vtHighPerKg);
-  if (lungProtective && hardToReach && target < pco2)
-    flags.push(
-      flag('permissive_hypercapnia_possible', 'info', {
-        pco2: round(pco2, 1),
-        target: round(target, 1),
-      }),
-    );
+  return record(book, 'deadSpaceMl', physiologicalDeadSpace(vt, anatomic, pco2, etco2), {
+    label: 'Dead space (physiological, from end-tidal CO2)',
+    unit: 'mL',
+    decimals: 0,
+    formula: 'VD = VDanatomic + (VT - VDanatomic) x (PaCO2 - PetCO2) / PaCO2',
+    inputs: [
+      input('VT', vt, 'mL'),
+      input('VD anatomic (2.2 mL/kg PBW + apparatus)', round(anatomic, 0), 'mL'),
+      input('PaCO2', pco2, P),
+      input('PetCO2', etco2, P),
+    ],
+    source: 'enghoff',
+  });
 }
 
 export function ventilationPart(
@@ -319,46 +244,44 @@ export function ventilationPart(
 ): { ventilation: Ventilation | null; deadSpace: N } {
   const v = c.ventilator;
   if (!v) return { ventilation: null, deadSpace: null };
-  const g = c.gas;
   const out: Ventilation = {
     ventilated: true,
     deadSpaceSource: null,
     targetSource: null,
     targetForm: null,
+    targetBasis: null,
+    requestedTarget: null,
     recheckMinutes: { ...VENTILATION.recheckMinutes },
     compensationTarget: null,
     usualPco2: null,
+    obstruction: null,
+    rrRoute: null,
+    vtRoute: null,
+    best: null,
+    ardsnetStep: null,
+    beyondVentilator: null,
   };
   const fit = mechanics(c, v, book, flags);
   const vd = ventilationVolumes(c, v, fit.pbw, book, flags, out);
-  const target = targetOf(c, v, book, flags, out);
-  if (target === null) return { ventilation: out, deadSpace: vd };
+  out.obstruction = obstructionOf(c, v);
+  const requested = targetOf(c, v, book, flags, out);
+  const target = targetInUse(c, requested, cl, ref, book, flags, out);
+  if (target === null) {
+    if (out.targetSource === null) flags.push(flag('no_ventilation_target', 'info', {}));
+    return { ventilation: out, deadSpace: vd };
+  }
   if (c.sample !== 'arterial')
     flags.push(flag('suggestion_from_venous_pco2', 'warning', { sample: c.sample }));
-  routes(c, v, target, vd, fit, book, flags);
-
-  // a target below what the patient needs (clinical-scope section 8)
-  const metabolicAcidosis = cl.disorders.some((x) => x.code === 'metabolic_acidosis');
-  if (metabolicAcidosis && g.hco3 < NORMAL.hco3.low) {
-    out.compensationTarget = wintersPco2(g.hco3);
-    if (target > out.compensationTarget.high)
-      flags.push(
-        flag('target_pco2_above_compensation', 'warning', {
-          target: round(target, 1),
-          expectedLow: round(out.compensationTarget.low, 1),
-          expectedHigh: round(out.compensationTarget.high, 1),
-        }),
-      );
-  }
-  const usual = usualPco2(ref);
-  out.usualPco2 = usual;
-  if (usual !== null && target < usual)
-    flags.push(
-      flag('target_pco2_below_baseline', 'warning', {
-        target: round(target, 1),
-        usual: round(usual, 1),
-        estimated: ref.usual?.estimated.pco2 === true,
-      }),
-    );
+  routesPart(c, v, { target, vd, ...fit }, book, flags, out);
   return { ventilation: out, deadSpace: vd };
+}
+
+/** Obstructive disease (clinical-scope section 10): known asthma or COPD, or a high PaCO2 with a high plateau. */
+function obstructionOf(c: CanonicalCase, v: Vent): Ventilation['obstruction'] {
+  const known = c.context.conditions;
+  if (known.includes('asthma')) return 'asthma';
+  if (known.includes('copd')) return 'copd';
+  if (has(v.pplat) && v.pplat > VENTILATION.plateauMax && c.gas.pco2 > NORMAL.pco2.high)
+    return 'pressures';
+  return null;
 }

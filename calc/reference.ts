@@ -127,6 +127,36 @@ export const VENTILATION = {
   recheckMinutes: { low: 20, high: 30 }, // common practice
 } as const;
 
+/** ARDS Network protocol (ARDS Network 2000): pH goal 7.30-7.45; below 7.30 raise RR up to 35; below 7.15 RR 35
+ * and bicarbonate may be considered. */
+export const ARDSNET_PH = { goalLow: 7.3, bicarbonateBelow: 7.15 } as const;
+
+/** Sodium bicarbonate in severe metabolic acidaemia with acute kidney injury: pH 7.20 or less (Jaber S et al.,
+ * BICAR-ICU, Lancet 2018;392:31). */
+export const BICARBONATE_PH_AT_OR_BELOW = 7.2;
+
+/** Severe hypoxaemia: P/F below 150 mmHg on FiO2 0.6 or more with PEEP 5 cmH2O or more: prone positioning for 16 h
+ * or more a day (Guerin C et al., PROSEVA, N Engl J Med 2013;368:2159). */
+export const SEVERE_HYPOXAEMIA = { pfBelow: 150, fio2AtLeast: 0.6, peepAtLeast: 5 } as const;
+
+/** SpO2 targets, percent (BTS oxygen guideline, O'Driscoll 2017; pregnancy 95% or more from memory, the upper
+ * limit of the standard band kept). */
+export const OXYGEN_TARGETS = {
+  standard: { low: 94, high: 98 },
+  hypercapnicRisk: { low: 88, high: 92 },
+  pregnancy: { low: 95, high: 98 },
+} as const;
+
+/** CO-oximetry thresholds, percent (common practice): COHb above 3 (non-smoker) or 10 (smoker), MetHb above 2; a
+ * pulse oximeter reading more than 5 points above the measured SaO2 is a saturation gap (common practice, from
+ * memory). */
+export const CO_OXIMETRY = {
+  cohbNonSmoker: 3,
+  cohbSmoker: 10,
+  methb: 2,
+  saturationGap: 5,
+} as const;
+
 /** Settings a department or a clinician may change. */
 export interface Settings {
   anionGapNormal: number; // mmol/L, mid of the lab's reference

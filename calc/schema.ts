@@ -210,6 +210,14 @@ export function rangeErrors(c: ParsedCase): FieldError[] {
       path: 'patient.pregnant',
       message: 'Pregnant is set for a male patient: check sex and pregnancy',
     });
+  if (
+    c.patient?.pregnancyWeeks != null &&
+    (c.patient?.pregnant === false || c.patient?.sex === 'male')
+  )
+    errors.push({
+      path: 'patient.pregnancyWeeks',
+      message: 'Weeks of pregnancy are given for a patient not pregnant or male: check pregnancy',
+    });
   for (const [i, p] of (c.previous ?? []).entries()) {
     for (const f of EARLIER_FIELDS) check(f, p, `previous.${i}.`, units, errors);
     checkGas(p.gas, `previous.${i}.`, errors);

@@ -49,6 +49,17 @@ export const SOURCES = {
     'BTS/SIGN British guideline on the management of asthma (SIGN 158, 2019): a normal or raised PaCO2 in acute asthma is life-threatening (from memory)',
   alkalosisCeiling:
     'Common practice (from memory): respiratory compensation for a metabolic alkalosis seldom takes PaCO2 above about 55-60 mmHg',
+  btsOxygen:
+    "O'Driscoll BR et al. BTS guideline for oxygen use in adults in healthcare and emergency settings. Thorax 2017;72:ii1-ii90 (pregnancy target 95% or more from memory)",
+  proseva:
+    'Guerin C et al. N Engl J Med 2013;368:2159-68 (PROSEVA: prone positioning 16 h or more a day)',
+  bicarIcu:
+    'Jaber S et al. Lancet 2018;392:31-40 (BICAR-ICU: sodium bicarbonate in severe metabolic acidaemia)',
+  enghoff:
+    "Bohr equation with Enghoff's modification: VD/VT = (PaCO2 - PECO2) / PaCO2; with the end-tidal CO2, the alveolar dead-space fraction",
+  mechanics:
+    'Respiratory-system compliance Crs = VT / (Pplat - PEEP); predicted plateau = PEEP + VT / Crs (ARDS Network 2000 limits)',
+  expiratoryTime: 'Expiratory time Te = 60 / RR - Ti (common practice)',
   criticalValues: 'Common practice critical-value defaults (laboratory-specific; configurable)',
 } as const;
 

@@ -243,6 +243,80 @@ const BUILDERS: Record<FlagCode, Builder> = {
     alveolar: fmt.pressure(num(x, 'alveolarPo2')),
     aa: fmt.pressure(num(x, 'aaGradient')),
   }),
+  suggested_vt_pressure_limits: (x, f, fmt) => ({
+    vt: fmt.withUnit(num(x, 'vt'), 0, 'mL'),
+    plateau: fmt.withUnit(num(x, 'predictedPlateau'), 0, 'cmH2O'),
+    driving: fmt.withUnit(num(x, 'predictedDrivingPressure'), 0, 'cmH2O'),
+    plateauOver: bool(x, 'plateauOver'),
+    drivingOver: bool(x, 'drivingOver'),
+    plateauLimit: limits(f, fmt).plateau,
+    drivingLimit: limits(f, fmt).drivingPressure,
+  }),
+  air_trapping_risk: (x, _f, fmt) => {
+    const why = str(x, 'obstruction');
+    return {
+      asthma: why === 'asthma',
+      copd: why === 'copd',
+      pressures: why === 'pressures',
+      rr: fmt.withUnit(num(x, 'rr'), 0, '/min'),
+      suggestedRr: fmt.withUnit(num(x, 'suggestedRr'), 0, '/min'),
+      te: fmt.withUnit(num(x, 'expiratoryTime'), 1, 's'),
+      suggestedTe: fmt.withUnit(num(x, 'suggestedExpiratoryTime'), 1, 's'),
+    };
+  },
+  compensation_beyond_ventilator: (x, f, fmt) => ({
+    label: co2Label(f.case.sample),
+    ph: fmt.ph(num(x, 'ph')),
+    bestPco2: fmt.pressure(num(x, 'bestPco2')),
+    bestPh: fmt.ph(num(x, 'bestPh')),
+    bicarbonate: bool(x, 'bicarbonate'),
+    bicarbonatePh: fmt.ph(R.BICARBONATE_PH_AT_OR_BELOW),
+  }),
+  ph_below_ardsnet_goal: (x, f, fmt) => ({
+    ph: fmt.ph(num(x, 'ph')),
+    goal: fmt.ph(R.ARDSNET_PH.goalLow),
+    floor: fmt.ph(R.ARDSNET_PH.bicarbonateBelow),
+    bestRr: fmt.withUnit(num(x, 'bestRr'), 0, '/min'),
+    bestPh: fmt.ph(num(x, 'bestPh')),
+    bicarbonate: bool(x, 'bicarbonate'),
+    rrMax: limits(f, fmt).rrMax,
+  }),
+  spo2_above_target: (x, _f, fmt) => ({
+    saturation: fmt.withUnit(num(x, 'saturation'), 0, '%'),
+    sao2: str(x, 'source') === 'sao2',
+    target: fmt.range(num(x, 'low'), num(x, 'high'), 0, '%'),
+    retainer: str(x, 'basis') === 'hypercapnic_risk',
+    pregnancy: str(x, 'basis') === 'pregnancy',
+    fio2: fmt.fio2(num(x, 'fio2')),
+  }),
+  severe_hypoxaemia: (x, _f, fmt) => ({
+    pf: fmt.pfRatio(num(x, 'pfRatio')),
+    fio2: fmt.fio2(num(x, 'fio2')),
+    peep: fmt.withUnit(num(x, 'peep'), 0, 'cmH2O'),
+    limit: fmt.pfRatio(R.SEVERE_HYPOXAEMIA.pfBelow),
+  }),
+  cohb_raised: (x, _f, fmt) => ({
+    cohb: fmt.withUnit(num(x, 'cohb'), 1, '%'),
+    smokerLimit: fmt.withUnit(R.CO_OXIMETRY.cohbSmoker, 0, '%'),
+    nonSmokerLimit: fmt.withUnit(R.CO_OXIMETRY.cohbNonSmoker, 0, '%'),
+    evenSmoker: str(x, 'band') === 'raised',
+  }),
+  methb_raised: (x, _f, fmt) => ({
+    methb: fmt.withUnit(num(x, 'methb'), 1, '%'),
+    limit: fmt.withUnit(R.CO_OXIMETRY.methb, 0, '%'),
+  }),
+  saturation_gap: (x, _f, fmt) => ({
+    spo2: fmt.withUnit(num(x, 'spo2'), 0, '%'),
+    sao2: fmt.withUnit(num(x, 'sao2'), 0, '%'),
+    gap: fmt.withUnit(num(x, 'gap'), 0, '%'),
+    cohb: num(x, 'cohb') !== null && (num(x, 'cohb') as number) > R.CO_OXIMETRY.cohbNonSmoker,
+    methb: num(x, 'methb') !== null && (num(x, 'methb') as number) > R.CO_OXIMETRY.methb,
+  }),
+  etco2_above_paco2: (x, f, fmt) => ({
+    label: co2Label(f.case.sample),
+    etco2: fmt.pressure(num(x, 'etco2')),
+    pco2: fmt.pressure(num(x, 'pco2')),
+  }),
 };
 
 function abs(x: number | null): number | null {
@@ -297,6 +371,16 @@ const SECTION: Record<FlagCode, FlagSection> = {
   target_not_reachable: 'ventilation',
   no_ventilation_target: 'ventilation',
   suggestion_from_venous_pco2: 'ventilation',
+  suggested_vt_pressure_limits: 'ventilation',
+  air_trapping_risk: 'ventilation',
+  compensation_beyond_ventilator: 'ventilation',
+  ph_below_ardsnet_goal: 'ventilation',
+  etco2_above_paco2: 'ventilation',
+  spo2_above_target: 'oxygenation',
+  severe_hypoxaemia: 'oxygenation',
+  cohb_raised: 'oxygenation',
+  methb_raised: 'oxygenation',
+  saturation_gap: 'oxygenation',
   critical_value: 'cautions',
 };
 

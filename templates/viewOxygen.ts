@@ -87,6 +87,30 @@ export function oxygenationView({ f, fmt, withheld }: Ctx) {
     sao2: fmt.withUnit(g.sao2, 0, '%'),
     hb: fmt.field('gas.hb', g.hb),
     content: fmt.withUnit(d.oxygenContent, 1, 'mL/dL'),
+    // the SpO2 target band (BTS 2017) and the saturation judged against it
+    target: o.target ? fmt.range(o.target.low, o.target.high, 0, '%') : null,
+    targetBasis: o.target?.basis ?? null,
+    saturation: o.saturation ? fmt.withUnit(o.saturation.value, 0, '%') : null,
+    saturationFromSao2: o.saturation?.source === 'sao2',
+    aboveTarget: o.aboveTarget,
+    saturationPlace:
+      o.saturation && o.target
+        ? o.saturation.value > o.target.high
+          ? ('above' as const)
+          : o.saturation.value < o.target.low
+            ? ('below' as const)
+            : ('within' as const)
+        : null,
+    belowTarget: o.belowTarget,
+    onOxygen: has(ox.fio2) && ox.fio2 > R.OXYGENATION.roomAirFio2 + 0.005,
+    severeHypoxaemia: o.severeHypoxaemia,
+    ardsCriterionMet: o.ardsCriterionMet,
+    gasExchangeImpaired: o.gasExchangeImpaired,
+    pfMild: fmt.pfRatio(R.OXYGENATION.pfMild),
+    cohb: fmt.withUnit(g.cohb, 1, '%'),
+    methb: fmt.withUnit(g.methb, 1, '%'),
+    cohbRaised: f.flags.some((x) => x.code === 'cohb_raised'),
+    methbRaised: f.flags.some((x) => x.code === 'methb_raised'),
     hypoxaemiaBelow: fmt.pressure(R.OXYGENATION.hypoxaemia),
     failureBelow: fmt.pressure(R.OXYGENATION.respiratoryFailure),
   };

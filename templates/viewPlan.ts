@@ -1,5 +1,4 @@
 // The plan part of the note's view model: which next steps and tests apply to this reading.
-import { reference as R } from '../calc/index.ts';
 import { type Ctx, has } from './viewShared.ts';
 
 export function planView(
@@ -39,26 +38,38 @@ export function planView(
   const alkalosis = hasDisorder('metabolic_alkalosis');
   const respiratoryAcidosis = hasDisorder('respiratory_acidosis');
   const inconsistent = f.consistency !== null && !f.consistency.consistent;
-  // A route is offered in the plan only inside lung-protective limits (ARDS Network 2000; Amato 2015;
-  // RR above 35/min, common practice): a larger breath is not offered when plateau or driving pressure is already high.
-  const V = R.VENTILATION;
-  const pressureLimited =
-    (has(v?.pplat) && (v?.pplat as number) > V.plateauMax) ||
-    (has(d.drivingPressure) && d.drivingPressure > V.drivingPressureMax);
-  const vtIncrease = has(d.suggestedVt) && has(v?.vt) && d.suggestedVt > (v?.vt as number);
-  const vtTooBig = has(d.suggestedVtPerKgPbw) && d.suggestedVtPerKgPbw > V.vtHighPerKg;
+  // A route is offered in the plan only inside lung-protective limits, as the core judged it (calc/readVentilationRoutes:
+  // VT 4-8 mL/kg PBW and the plateau and driving pressure the compliance predicts, ARDS Network 2000 and Amato 2015;
+  // RR up to 35/min with an expiratory time left, common practice).
+  const rrRoute = fw?.rrRoute ?? null;
+  const vtRoute = fw?.vtRoute ?? null;
   const route = {
-    rr: has(d.suggestedRr) && d.suggestedRr <= V.rrMax,
-    vt: has(d.suggestedVt) && !vtTooBig && !(vtIncrease && pressureLimited),
-    vtReason: !has(d.suggestedVt)
+    rr: rrRoute?.offered === true,
+    vt: vtRoute?.offered === true,
+    vtReason: !vtRoute
       ? null
-      : vtTooBig
+      : vtRoute.limits.includes('vt_above_8_ml_per_kg')
         ? ('per_kg' as const)
-        : vtIncrease && pressureLimited
-          ? ('pressure' as const)
+        : vtRoute.limits.includes('vt_below_4_ml_per_kg')
+          ? ('below_range' as const)
+          : vtRoute.limits.length
+            ? ('pressure' as const)
+            : null,
+    vtUnchecked: vtRoute?.unchecked.includes('per_kg') === true,
+    plateauUnchecked: vtRoute?.unchecked.includes('plateau') === true,
+    rrReason: !rrRoute
+      ? null
+      : rrRoute.limits.includes('rr_above_35')
+        ? ('above_35' as const)
+        : rrRoute.limits.includes('no_expiratory_time')
+          ? ('no_expiratory_time' as const)
           : null,
-    vtUnchecked: has(d.suggestedVt) && !has(d.suggestedVtPerKgPbw),
   };
+  // raising the rate in obstruction: check for air trapping first (clinical-scope section 10)
+  const raisesRate =
+    (route.rr && has(d.suggestedRr) && has(v?.rr) && d.suggestedRr > (v?.rr as number)) ||
+    (!route.rr && !route.vt && has(d.bestRr) && has(v?.rr) && d.bestRr > (v?.rr as number));
+  const ox = f.oxygenation;
   const plan = {
     route,
     ventilator:
@@ -104,6 +115,25 @@ export function planView(
       : f.flags.some((x) => x.code === 'target_pco2_below_baseline')
         ? ('below_baseline' as const)
         : null,
+    /** the target in use replaces the one asked for: Winters' compensation or the usual PaCO2 */
+    targetBasis: fw?.targetBasis ?? null,
+    /** no single route within limits: the best setting within them (and whether it reaches the target) */
+    best: !route.rr && !route.vt && fw?.best ? { reaches: fw.best.reachesTarget } : null,
+    /** air trapping: obstruction and a rate rise on offer */
+    airTrapping: fw?.obstruction && raisesRate ? fw.obstruction : null,
+    ardsnet: fw?.ardsnetStep ?? null,
+    beyondVentilator: fw?.beyondVentilator ?? null,
+    /** severe hypoxaemia: prone positioning, PEEP/FiO2 strategy, neuromuscular blockade (PROSEVA 2013) */
+    prone: arterial && ox.severeHypoxaemia,
+    /** the SpO2 target to name, and too much oxygen for it (BTS 2017) */
+    oxygenTarget: arterial && ox.target ? ox.target.basis : null,
+    reduceOxygen: arterial && ox.aboveTarget,
+    /** look for the cause of a gas-exchange defect (a raised A-a gradient, or P/F 300 or less on oxygen) */
+    // (off the ventilator: on it, the team is already treating the lung)
+    gasExchange: arterial && !fw && ox.gasExchangeImpaired && ox.level !== 'normal',
+    hypoventilationOrLowInspired: arterial && ox.lowInspiredOrHypoventilation,
+    carbonMonoxide: f.flags.some((x) => x.code === 'cohb_raised'),
+    methaemoglobin: f.flags.some((x) => x.code === 'methb_raised'),
   };
 
   return { plan, inconsistent };

@@ -50,6 +50,53 @@ export function ventilationView({ f, fmt, withheld }: Ctx) {
             : null,
           compensationTarget: fmt.pressureBand(fw.compensationTarget),
           usual: fmt.pressure(fw.usualPco2),
+          usualEstimated: f.reference.usual?.estimated.pco2 === true,
+          // what the target is and what it replaced (clinical-scope sections 8 and 10)
+          targetBasis: fw.targetBasis,
+          requestedTarget: fmt.pressure(fw.requestedTarget),
+          compliance: fmt.withUnit(d.compliance, 1, 'mL/cmH2O'),
+          ti: fmt.withUnit(v.inspiratoryTime, 1, 's'),
+          te: fmt.withUnit(d.expiratoryTime, 1, 's'),
+          etco2: fmt.pressure(v.etco2),
+          alveolarDeadSpaceFraction: fmt.fixed(d.alveolarDeadSpaceFraction, 2),
+          obstruction: fw.obstruction,
+          rrRoute: fw.rrRoute
+            ? {
+                offered: fw.rrRoute.offered,
+                above35: fw.rrRoute.limits.includes('rr_above_35'),
+                noExpiration: fw.rrRoute.limits.includes('no_expiratory_time'),
+                te: fmt.withUnit(d.suggestedExpiratoryTime, 1, 's'),
+                raises: has(v.rr) && fw.rrRoute.value > v.rr,
+              }
+            : null,
+          vtRoute: fw.vtRoute
+            ? {
+                offered: fw.vtRoute.offered,
+                aboveKg: fw.vtRoute.limits.includes('vt_above_8_ml_per_kg'),
+                belowKg: fw.vtRoute.limits.includes('vt_below_4_ml_per_kg'),
+                pressures:
+                  fw.vtRoute.limits.includes('plateau_above_30') ||
+                  fw.vtRoute.limits.includes('driving_pressure_above_15'),
+                plateau: fmt.withUnit(d.predictedPlateau, 0, 'cmH2O'),
+                driving: fmt.withUnit(d.predictedDrivingPressure, 0, 'cmH2O'),
+                kgUnchecked: fw.vtRoute.unchecked.includes('per_kg'),
+                plateauUnchecked: fw.vtRoute.unchecked.includes('plateau'),
+              }
+            : null,
+          best: fw.best
+            ? {
+                rr: fmt.withUnit(fw.best.rr, 0, '/min'),
+                vt: fmt.withUnit(fw.best.vt, 0, 'mL'),
+                pco2: fmt.pressure(fw.best.pco2),
+                ph: fmt.ph(fw.best.ph),
+                reaches: fw.best.reachesTarget,
+                limitedBy: fw.best.vtLimitedBy,
+                raisesRr: has(v.rr) && fw.best.rr > v.rr,
+              }
+            : null,
+          ardsnetStep: fw.ardsnetStep,
+          beyondVentilator: fw.beyondVentilator,
+          ph: fmt.ph(g.ph),
         }
       : null;
 

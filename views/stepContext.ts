@@ -74,6 +74,8 @@ export interface StepSpec {
   openWhenSkipped?: boolean;
   /** why the step is not asked for this case, or null when it is */
   skipReason?(ctx: StepContext, done: boolean): string | null;
+  /** a number question of the table's rows for this step that cannot change the reading for this case: not asked */
+  hides?(f: FieldSpec, ctx: StepContext): boolean;
   /** short remarks shown with the form: a question left out, and why */
   remarks?(ctx: StepContext): string[];
   /** rules across the step's own fields, after they are written */

@@ -226,6 +226,8 @@ const ventilator: StepSpec = {
 };
 
 const male = (answers: Json) => getPath(answers, 'patient.sex') === 'male';
+const notPregnant = (answers: Json) =>
+  male(answers) || getPath(answers, 'patient.pregnant') === false;
 
 const patient: StepSpec = {
   id: 'patient',
@@ -243,9 +245,13 @@ const patient: StepSpec = {
       ],
     },
   ],
+  optionalLegend: 'If pregnant',
+  // weeks of pregnancy change the reading only in a pregnancy: not asked for a man or a patient said not pregnant
+  hides: (f, ctx) => f.path === 'patient.pregnancyWeeks' && notPregnant(ctx.answers),
   remarks: (ctx) => (male(ctx.answers) ? ['Pregnancy not asked: male patient.'] : []),
   finish: (answers) => {
     if (male(answers)) setPath(answers, 'patient.pregnant', undefined);
+    if (notPregnant(answers)) setPath(answers, 'patient.pregnancyWeeks', undefined);
   },
 };
 

@@ -50,7 +50,9 @@ function groupsOf(spec: StepSpec, ctx: StepContext): Group[] {
   const before = choicesOf(spec.before, ctx);
   const after = choicesOf(spec.after, ctx);
   const choices = new Set([...before, ...after].map((c) => c.name));
-  const rows = (FIELDS as readonly FieldSpec[]).filter((f) => f.step === spec.id && asked(f, ctx));
+  const rows = (FIELDS as readonly FieldSpec[]).filter(
+    (f) => f.step === spec.id && asked(f, ctx) && !spec.hides?.(f, ctx),
+  );
   const number = (f: FieldSpec) =>
     numberField(f, ctx.units, {
       label: fieldLabel(f, ctx.sample),

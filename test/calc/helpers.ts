@@ -217,11 +217,17 @@ export const anyCase: fc.Arbitrary<CaseInput> = fc.constantFrom(SI, CONVENTIONAL
             fc.constantFrom('male', 'female', null),
             fc.boolean(),
           )
-          .map(([p, sex, pregnant]) => ({
-            ...p,
-            sex,
-            pregnant: sex === 'female' ? pregnant : false,
-          })),
+          .map(([p, sex, pregnant]) => {
+            const { pregnancyWeeks, ...rest } = p;
+            // weeks of pregnancy only for a pregnant patient (the schema refuses them otherwise)
+            const isPregnant = sex === 'female' && pregnant;
+            return {
+              ...rest,
+              ...(isPregnant ? { pregnancyWeeks } : {}),
+              sex,
+              pregnant: sex === 'female' ? pregnant : false,
+            };
+          }),
         context: fc
           .tuple(
             groupOf(CONTEXT_RANGES, units),

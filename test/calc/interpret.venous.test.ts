@@ -65,7 +65,8 @@ describe('a ventilator target below any plausible PaCO2', () => {
     expect(f.flags.find((x) => x.code === 'target_not_reachable')?.values).toMatchObject({
       targetPh: 7.6,
     });
-    expect(f.derived.targetPco2).toBeNull();
-    expect(f.derived.suggestedRr).toBeNull();
+    // a metabolic acidosis: the target is Winters' 1.5 x 6.1 + 8 = 17.2 instead (Albert 1967),
+    expect(f.derived.targetPco2).toBe(17.2);
+    expect(f.ventilation?.targetBasis).toBe('compensation');
   });
 });

@@ -128,7 +128,7 @@ describe('the target PaCO2 and the settings to reach it', () => {
     expect(f.derived.suggestedVtPerKgPbw).toBe(7.8);
   });
 
-  it('the rate route beyond 35/min but the volume route within 8 mL/kg: no permissive-hypercapnia flag', () => {
+  it('the rate route beyond 35/min; the volume route within 8 mL/kg but over the plateau the compliance predicts', () => {
     const f = read(ards);
     expect(f.flags.find((x) => x.code === 'rr_above_35')?.values).toMatchObject({
       which: 'suggested',
@@ -136,21 +136,46 @@ describe('the target PaCO2 and the settings to reach it', () => {
     });
     // VT_new = VD + (VT - VD) x 65 / 44.6 with VD = 2.2 x 52.4 = 115: 115 + 205 x 1.457 = 414 -> 410 mL, 7.8 mL/kg
     expect(f.derived.suggestedVt).toBe(410);
-    expect(codes(f)).not.toContain('permissive_hypercapnia_possible');
-    expect(codes(f)).not.toContain('driving_pressure_above_15'); // 28 - 14 = 14
+    // Crs = 320 / (28 - 14) = 22.9 mL/cmH2O; plateau 14 + 410 / 22.9 = 31.9 > 30 (ARDS Network 2000), driving
+    // pressure 17.9 > 15 (Amato 2015)
+    expect(f.derived).toMatchObject({
+      compliance: 22.9,
+      predictedPlateau: 32,
+      predictedDrivingPressure: 18,
+    });
+    expect(f.ventilation?.vtRoute).toMatchObject({
+      offered: false,
+      limits: ['plateau_above_30', 'driving_pressure_above_15'],
+    });
+    expect(codes(f)).toContain('suggested_vt_pressure_limits');
+    expect(codes(f)).not.toContain('driving_pressure_above_15'); // 28 - 14 = 14 now
   });
 
-  it('lung-protective VT with a target out of safe reach by both routes: permissive_hypercapnia_possible', () => {
+  it('lung-protective VT with the target out of safe reach and pH 7.22: the ARDS Network steps, not permissive hypercapnia', () => {
     const f = read({ ...ards, ventilator: { ...ards.ventilator, vt: 380 } });
     // RR 30 x 65 / 44.6 = 44 /min; VT 115 + 265 x 1.457 = 501 -> 500 mL = 9.5 mL/kg PBW: both beyond limits
     expect(f.derived).toMatchObject({ suggestedRr: 44, suggestedVt: 500 });
     expect(codes(f)).toEqual(
-      expect.arrayContaining([
-        'rr_above_35',
-        'vt_above_8_ml_per_kg',
-        'permissive_hypercapnia_possible',
-      ]),
+      expect.arrayContaining(['rr_above_35', 'vt_above_8_ml_per_kg', 'ph_below_ardsnet_goal']),
     );
+    // ARDS Network 2000: pH goal 7.30-7.45, below 7.30 raise RR up to 35
+    expect(codes(f)).not.toContain('permissive_hypercapnia_possible');
+    expect(f.ventilation?.ardsnetStep).toBe('raise_rr');
+  });
+
+  it('the same patient at pH 7.30 (PaCO2 60, HCO3 28.8, acute): within the ARDS Network pH goal, permissive hypercapnia may be accepted', () => {
+    const f = read({
+      ...ards,
+      gas: { ph: 7.3, pco2: 60, po2: 70, hco3: 28.8 },
+      context: { timing: 'acute' },
+      ventilator: { ...ards.ventilator, vt: 380, targetPh: 7.4 },
+    });
+    expect(codes(f)).toContain('permissive_hypercapnia_possible');
+    expect(f.ventilation?.ardsnetStep).toBe('goal');
+    // the best setting within the limits: Crs 380 / 14 = 27.1, driving pressure 15 gives 407 -> 400 mL (Amato 2015),
+    // RR 35; PaCO2 60 x 30 x (380 - 115.3) / (35 x (400 - 115.3)) = 47.8 mmHg (West)
+    expect(f.ventilation?.best).toMatchObject({ rr: 35, vt: 400, vtLimitedBy: 'driving_pressure' });
+    expect(f.derived.bestPco2).toBe(47.8);
   });
 
   it('every suggestion comes with a recheck 20-30 minutes later (common practice)', () => {
@@ -188,15 +213,40 @@ describe('the target PaCO2 and the settings to reach it', () => {
     expect(f.derived.suggestedRr).toBe(18); // 16 x 40 / 35
   });
 
-  it('a target pH that no PaCO2 can give is said so, with nothing suggested', () => {
+  it("a target pH that no PaCO2 can give is said so; in a metabolic acidosis the target becomes Winters' 1.5 x 3 + 8 = 12.5", () => {
     const f = read({
       gas: { ph: 7.1, pco2: 30, hco3: 3.0 },
       patient: man,
       ventilator: { vt: 450, rr: 16, targetPh: 7.35 },
     });
     expect(codes(f)).toContain('target_not_reachable');
-    expect(f.derived.targetPco2).toBeNull();
-    expect(f.derived.suggestedRr).toBeNull();
+    expect(f.derived.targetPco2).toBe(12.5);
+    expect(f.ventilation?.targetBasis).toBe('compensation');
+    // neither route alone within limits (RR 16 x 30 / 12.5 = 38 > 35; VT 860 > 8 mL/kg): the best setting within the
+    // limits, VT 8 x 70.57 = 565 -> 560 mL with the rate it needs, ceil(16 x 294.7 / 404.7 x 30 / 12.5) = 28/min
+    expect(f.ventilation?.best).toMatchObject({
+      vt: 560,
+      rr: 28,
+      reachesTarget: true,
+      vtLimitedBy: 'per_kg',
+    });
+  });
+
+  it('a target pH that no PaCO2 can give, outside a metabolic acidosis: nothing suggested', () => {
+    const f = read({
+      gas: { ph: 7.6, pco2: 30, hco3: 28.8 },
+      patient: man,
+      ventilator: { vt: 450, rr: 16, targetPh: 7.0 },
+    });
+    expect(f.derived.targetPco2).not.toBeNull();
+    const g = read({
+      gas: { ph: 7.45, pco2: 40, hco3: 27.2 },
+      patient: man,
+      ventilator: { vt: 450, rr: 16, targetPh: 7.6 },
+    });
+    // 25.1 x (27.2 - 4) / (24 - 2.51) = 27.1: reachable; a pH of 7.6 is inside the field's range, so the floor case is
+    // the venous test's (HCO3 6.1)
+    expect(g.derived.targetPco2).toBe(27.1);
   });
 
   it('no target: said so, nothing suggested', () => {
@@ -226,7 +276,11 @@ describe('a target below what the patient needs (clinical-scope section 8)', () 
       expectedLow: 24.7,
       expectedHigh: 28.7,
     });
-    expect(f.derived.suggestedRr).toBe(13); // 20 x 26 / 40: the machine would be slowed down
+    // the requested 40 is replaced by Winters' middle, 26.7 (Albert 1967): RR 20 x 26 / 26.7 = 19.5 -> 19, never slowed
+    // to 13 as a 'normal' 40 would ask
+    expect(f.derived.targetPco2).toBe(26.7);
+    expect(f.ventilation).toMatchObject({ targetBasis: 'compensation', requestedTarget: 40 });
+    expect(f.derived.suggestedRr).toBe(19);
   });
 
   it('the same acidosis with a target inside the compensation is not flagged', () => {
@@ -246,13 +300,16 @@ describe('a target below what the patient needs (clinical-scope section 8)', () 
       oxygen: { fio2: 0.3, peep: 5 },
       ventilator: { vt: 450, rr: 14, targetPh: 7.4 },
     });
-    expect(f.derived.targetPco2).toBe(56.7);
     expect(f.flags.find((x) => x.code === 'target_pco2_below_baseline')?.values).toEqual({
       target: 56.7,
       usual: 60,
       estimated: false,
     });
     expect(f.ventilation?.usualPco2).toBe(60);
+    // the usual value becomes the target: RR 14 x 75 / 60 = 17.5 -> 18 (West)
+    expect(f.derived.targetPco2).toBe(60);
+    expect(f.ventilation).toMatchObject({ targetBasis: 'usual', requestedTarget: 56.7 });
+    expect(f.derived.suggestedRr).toBe(18);
   });
 
   it('without a stated baseline the usual PaCO2 is the point on the chronic line from which an acute change reaches today: (36 - 10 - 7.5) / 0.25 = 74 (clinical-scope section 10)', () => {

@@ -112,7 +112,8 @@ describe.skipIf(!run)('the step-by-step page in Chromium', () => {
 
     await waitOpen(page, 'ventilator');
     await expect.poll(() => focusedId(page)).toBe('f-ventilator-vt');
-    for (const value of ['520', '14', '27', '175']) {
+    // VT, RR, plateau, end-tidal CO2 and inspiratory time (left empty), height
+    for (const value of ['520', '14', '27', '', '', '175']) {
       await page.keyboard.type(value);
       await page.keyboard.press('Tab');
     }

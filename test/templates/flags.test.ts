@@ -75,6 +75,35 @@ const SAMPLE_VALUES: Record<FlagCode, Flag['values']> = {
     alveolarPo2: 57.4,
     aaGradient: 5.4,
   },
+  suggested_vt_pressure_limits: {
+    vt: 430,
+    predictedPlateau: 31,
+    predictedDrivingPressure: 17,
+    plateauOver: true,
+    drivingOver: true,
+  },
+  air_trapping_risk: {
+    obstruction: 'asthma',
+    rr: 14,
+    suggestedRr: 20,
+    expiratoryTime: 3.3,
+    suggestedExpiratoryTime: 2,
+  },
+  compensation_beyond_ventilator: { ph: 7.1, bestPco2: 29.5, bestPh: 7.16, bicarbonate: true },
+  ph_below_ardsnet_goal: { ph: 7.18, bestRr: 35, bestPh: 7.22, bicarbonate: false },
+  spo2_above_target: {
+    saturation: 99,
+    source: 'spo2',
+    low: 88,
+    high: 92,
+    basis: 'hypercapnic_risk',
+    fio2: 0.6,
+  },
+  severe_hypoxaemia: { pfRatio: 108, fio2: 0.8, peep: 12 },
+  cohb_raised: { cohb: 24, band: 'raised' },
+  methb_raised: { methb: 12 },
+  saturation_gap: { spo2: 98, sao2: 74, gap: 24, cohb: 24, methb: null },
+  etco2_above_paco2: { etco2: 45, pco2: 40 },
 };
 
 describe('flag codes', () => {

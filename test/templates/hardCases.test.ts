@@ -132,7 +132,11 @@ describe('usual values', () => {
     );
     expect(interpretation(n).match(/25.9 mmol\/L/g)).toHaveLength(1);
     expect(interpretation(n)).not.toMatch(/compensation is as expected/);
-    expect(plan(n)).toMatch(/below this patient's usual 46 mmHg/);
+    // the usual value becomes the target (clinical-scope section 10), with why full correction is not advised
+    expect(plan(n)).toMatch(
+      /this patient's usual PaCO2 of 46 mmHg \(estimated\), not the 4\d mmHg asked for/,
+    );
+    expect(plan(n)).toMatch(/full correction to pH 7.40 would leave the HCO3/);
   });
 
   it('no usual values, HCO3 between the rules: the usual point on the chronic line is said, as an estimate', () => {

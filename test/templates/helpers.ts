@@ -45,7 +45,7 @@ export const danglingBullets = (text: string): string[] =>
   text.split('\n').filter((l) => /^\s*[-*]\s*[.,;:]*\s*$/.test(l));
 
 // Units the note prints (UCUM-style labels as clinicians write them).
-const UNIT = String.raw`(?:mmHg|kPa|mmol/L|nmol/L|mOsm/kg|g/dL|g/L|mg/dL|µmol/L|mL/kg PBW|mL/min|mL/dL|mL|L/min|cmH2O|kg|cm|%|/min|min|years|°C|m)(?![A-Za-z])`;
+const UNIT = String.raw`(?:mmHg|kPa|mmol/L|nmol/L|mOsm/kg|g/dL|g/L|mg/dL|µmol/L|mL/kg PBW|mL/min|mL/dL|mL|L/min|cmH2O|kg|cm|%|/min|min|years|°C|m|s|h)(?![A-Za-z])`;
 const NUMBER = String.raw`-?\d+(?:\.\d+)?`;
 
 /**

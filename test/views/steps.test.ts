@@ -117,3 +117,17 @@ describe('the steps derive from the table of fields', () => {
     );
   });
 });
+
+describe('weeks of pregnancy are asked only when they can change the reading', () => {
+  const weeksAsked = (patient: Record<string, unknown>) =>
+    ownedPaths(STEPS.patient.groups(contextOf({ sample: 'arterial', patient }, true))).includes(
+      'patient.pregnancyWeeks',
+    );
+
+  it('asked for a woman, or when sex is not known, unless she is said not to be pregnant', () => {
+    expect(weeksAsked({})).toBe(true);
+    expect(weeksAsked({ sex: 'female', pregnant: true })).toBe(true);
+    expect(weeksAsked({ sex: 'female', pregnant: false })).toBe(false);
+    expect(weeksAsked({ sex: 'male' })).toBe(false);
+  });
+});

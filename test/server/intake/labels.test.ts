@@ -14,6 +14,8 @@ const EXAMPLES: readonly [string, FieldPath, number, string, string?][] = [
   ['cHCO3-(P) 23.5 mmol/L', 'gas.hco3', 23.5, 'mmol/L'],
   ['BE(B) -2.1 mmol/L', 'gas.baseExcess', -2.1, 'mmol/L'],
   ['sO2 93 %', 'gas.sao2', 93, '%'],
+  ['FCOHb 4.2 %', 'gas.cohb', 4.2, '%'],
+  ['MetHb 1.1 %', 'gas.methb', 1.1, '%'],
   ['cLac 1.1 mmol/L', 'gas.lactate', 1.1, 'mmol/L'],
   ['ctHb 121 g/L', 'gas.hb', 121, 'g/L'],
   ['Na+ 138 mmol/L', 'chemistry.na', 138, 'mmol/L'],
