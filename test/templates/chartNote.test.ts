@@ -114,3 +114,24 @@ describe('the ISBAR handover', () => {
     expect(background).toContain('Usual PaCO2 55 mmHg, HCO3 32.0 mmol/L');
   });
 });
+
+describe('the plan bullets carry the ventilator and oxygen reasoning in a line each', () => {
+  const short = (name: string) => {
+    const f = interpret(C.ALL_CASES[name]);
+    if (!f.ok) throw new Error(name);
+    return renderer.render(f).text;
+  };
+
+  it('a retainer: the usual PaCO2 is the target, not the lower one asked for (clinical-scope section 10)', () => {
+    expect(short('copdVentilated')).toMatch(
+      /^- Consider RR \d+\/min for target PaCO2 55 mmHg \(the usual PaCO2, not the 52 mmHg asked for: full correction would leave a metabolic alkalosis\)/m,
+    );
+  });
+
+  it('severe hypoxaemia on high FiO2 and PEEP: prone positioning named (PROSEVA, Guerin 2013)', () => {
+    const text = short('ards');
+    expect(text).toMatch(/^- Severe hypoxaemia: prone positioning/m);
+    // the flag that says the same is left to the full note
+    expect(text.match(/prone positioning/g)).toHaveLength(1);
+  });
+});
