@@ -8,6 +8,7 @@ import { jsonError } from './errors.ts';
 import { launch, launchView, type LaunchSettings } from './launch/index.ts';
 import { createNoteRenderer, TemplateError, type NoteRenderer } from '../templates/index.ts';
 import type { InterpretOptions } from '../calc/index.ts';
+import type { UnitChoices } from './unitsSetting.ts';
 
 export interface AppOptions {
   /** a department's folder of note templates (NOTE_TEMPLATES) */
@@ -24,6 +25,8 @@ export interface AppOptions {
   launch?: LaunchSettings | null;
   /** origins of the record allowed to embed the page (FRAME_ANCESTORS); none: no framing */
   frameAncestors?: string[];
+  /** the units a new case starts in (UNITS, read by server/unitsSetting.ts) */
+  units?: UnitChoices;
 }
 
 export function createApp(options: AppOptions = {}): Hono {
@@ -55,6 +58,7 @@ export function createApp(options: AppOptions = {}): Hono {
       renderer,
       interpretOptions: options.interpretOptions,
       launchView: launchViewFor,
+      units: options.units,
     }),
   );
 

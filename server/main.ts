@@ -3,6 +3,7 @@ import { serve } from '@hono/node-server';
 import cluster from 'node:cluster';
 import { createApp } from './app.ts';
 import { readSettings } from './launch/index.ts';
+import { parseUnits } from './unitsSetting.ts';
 
 const LOOPBACK = new Set(['127.0.0.1', 'localhost', '::1']);
 
@@ -28,7 +29,13 @@ export function startServer(env: NodeJS.ProcessEnv = process.env) {
   }
   if (!cluster.isWorker || cluster.worker?.id === 1)
     for (const message of settings.messages) console.log(message);
+  const units = parseUnits(env.UNITS ?? '');
+  if (!units.ok) {
+    console.error(units.error);
+    process.exit(2);
+  }
   const app = createApp({
+    units: units.units,
     launch: settings.launch,
     frameAncestors: settings.frameAncestors,
     templateDir: env.NOTE_TEMPLATES?.trim() || null,
