@@ -73,6 +73,14 @@ async function axe22(s: Session, label: string) {
 
 const clipboard = (page: Page) => page.evaluate(() => navigator.clipboard.readText());
 
+/** No style or script refused by the page's CSP, and nothing asked of any other origin. */
+async function closeChecked(s: Session) {
+  expect(await s.cspViolations()).toEqual([]);
+  const origin = new URL(s.page.url()).origin;
+  expect(s.requests.filter((u) => !u.startsWith(origin))).toEqual([]);
+  await s.context.close();
+}
+
 /** The page keeps its width: nothing wider than the viewport. */
 const pageWidth = (page: Page) => page.evaluate(() => document.documentElement.scrollWidth);
 
@@ -189,7 +197,7 @@ describe.skipIf(!run)('a conversation, not a form', () => {
       await page.getByText('Full reasoning', { exact: true }).click();
       expect(await page.locator('#note-full').isVisible()).toBe(true);
       expect(await page.locator('.draft-head .caution').isVisible()).toBe(true);
-      await s.context.close();
+      await closeChecked(s);
     });
 
     it(`${size}: a pasted printout reaches a copied line in at most 4 actions`, async () => {
@@ -222,7 +230,7 @@ describe.skipIf(!run)('a conversation, not a form', () => {
       expect(await clipboard(page)).toBe(line);
       counts[`pasted printout to copied line, ${size}`] = act.count();
       expect(act.count()).toBeLessThanOrEqual(4);
-      await s.context.close();
+      await closeChecked(s);
     });
 
     it(`${size}: a follow-up gas reaches a copied line in at most 5 actions, with its own time and what changed`, async () => {
@@ -306,7 +314,7 @@ describe.skipIf(!run)('a conversation, not a form', () => {
         expect(text).toContain(line.slice(0, 20));
       }
       await page.emulateMedia({ media: 'screen' });
-      await s.context.close();
+      await closeChecked(s);
     });
   }
 });
