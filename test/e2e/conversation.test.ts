@@ -81,6 +81,41 @@ async function closeChecked(s: Session) {
   await s.context.close();
 }
 
+/** Every control a finger uses is at least 44 px tall and wide (WCAG 2.5.5's size; 2.5.8 asks 24). */
+async function tapTargets(page: Page) {
+  const small = await page.evaluate(() => {
+    const out: string[] = [];
+    const controls = document.querySelectorAll(
+      'button, select, input:not([type="hidden"]):not([type="radio"]), summary, .option, a.button, textarea',
+    );
+    for (const el of controls) {
+      const box = el.getBoundingClientRect();
+      if (box.width === 0 || box.height === 0) continue; // not shown
+      if (el.closest('.visually-hidden, .default-submit, [hidden]')) continue;
+      if (box.height < 44 || box.width < 44)
+        out.push(`${el.tagName} ${el.textContent?.trim().slice(0, 30)} ${box.width}x${box.height}`);
+    }
+    return out;
+  });
+  expect(small).toEqual([]);
+}
+
+/** Number fields side by side line up, however their labels wrap. */
+async function inputsInLine(page: Page) {
+  const misaligned = await page.evaluate(() => {
+    const boxes = [...document.querySelectorAll('.entry--open .fields input.number')].map((el) =>
+      el.getBoundingClientRect(),
+    );
+    const out: string[] = [];
+    for (const a of boxes)
+      for (const b of boxes)
+        if (a !== b && a.top < b.bottom && b.top < a.bottom && Math.abs(a.top - b.top) > 1)
+          out.push(`${a.top} vs ${b.top}`);
+    return out;
+  });
+  expect(misaligned).toEqual([]);
+}
+
 /** The page keeps its width: nothing wider than the viewport. */
 const pageWidth = (page: Page) => page.evaluate(() => document.documentElement.scrollWidth);
 
@@ -128,6 +163,8 @@ describe.skipIf(!run)('a conversation, not a form', () => {
         .toBe('f-chemistry-na');
       await copyButtonsInView(page);
       expect(await pageWidth(page)).toBe(width);
+      await inputsInLine(page);
+      if (size === 'phone') await tapTargets(page);
       await axe22(s, 'draft after gas');
       await s.shot('draft-after-gas', { full: false });
       await act.press(page.getByRole('button', { name: 'Copy line', exact: true }));
@@ -188,6 +225,7 @@ describe.skipIf(!run)('a conversation, not a form', () => {
         'Nothing more to ask',
       );
       await copyButtonsInView(page);
+      if (size === 'phone') await tapTargets(page);
       await axe22(s, 'finished');
       await s.shot('finished', { full: false });
       await s.shot('finished-whole');
