@@ -19,14 +19,13 @@ import {
   openStep,
   placeErrors,
   readOf,
-  replyOf,
   startsCase,
   statuses,
   type FlowState,
   type Invalid,
   type Read,
 } from './flow.ts';
-import { changeText, changesSince } from './followUp.ts';
+import { announceOf, replyView } from './reply.ts';
 import type { PasteView } from './paste.ts';
 import { earlierGases, getPath, type FormValues } from './paths.ts';
 import { PASTE_STEP, STEPS, caseLabel, type StepContext, type StepId } from './steps.ts';
@@ -214,21 +213,13 @@ export function flowView(read: Read | FlowState, deps: RenderDeps, p: Presentati
   const frontier = list.findIndex((s) => s.status === 'todo');
   const lastDone = list.reduce((last, s, i) => (s.status === 'done' ? i : last), -1);
   const note = r.findings ? deps.renderer.render(r.findings, { format: 'text' }) : null;
-  const reply = replyOf(r, p.paste ? null : open, p.answered?.id ?? null, p.answered?.reopened);
-  const said = {
-    type: 'reply',
-    id: 'reply',
-    reads: note?.line ?? null,
-    passed: reply.passed,
-    reopened: reply.reopened,
-    next: reply.next,
-    finished: !open && !!note,
-    changes: changesView(state.answers),
-  };
+  const said = replyView(r, p.paste ? null : open, p.answered ?? null, note?.line ?? null);
+
   list.forEach((s, i) => {
     const step = STEPS[s.id];
     if (s.id === open) {
-      if (note || reply.passed.length) items.push(said);
+      // the confirm view of a paste speaks for itself; a reply comes once its values are used
+      if (!p.paste && (note || said.passed.length)) items.push(said);
       items.push(p.paste ?? formView(s.id, r, p));
     } else if (s.status === 'done') {
       items.push({
@@ -271,37 +262,6 @@ export function flowView(read: Read | FlowState, deps: RenderDeps, p: Presentati
     items,
     draft,
   };
-}
-
-/** Since the last earlier gas: the gas then and now, and the settings changed ("RR 22 to 28/min"). */
-function changesView(answers: FlowState['answers']) {
-  const c = changesSince(answers);
-  if (!c) return null;
-  return {
-    when: c.when,
-    gas: c.gas.map(changeText),
-    settings: c.settings.map(changeText),
-  };
-}
-
-/** The live region says what the reply bubble says. */
-function announceOf(said: {
-  reads: string | null;
-  passed: string[];
-  reopened: string | null;
-  next: { title: string; why: string | null } | null;
-  finished: boolean;
-}): string {
-  const parts: string[] = [];
-  if (said.reads) parts.push(`Reads now: ${said.reads}`);
-  parts.push(...said.passed);
-  if (said.reopened) parts.push(said.reopened);
-  if (said.next)
-    parts.push(
-      `Next, ${said.next.title.toLowerCase()}${said.next.why ? `: ${said.next.why}` : '.'}`,
-    );
-  else if (said.finished) parts.push('Nothing more to ask: the draft is ready to copy.');
-  return parts.join(' ');
 }
 
 // ---------- earlier gases ----------

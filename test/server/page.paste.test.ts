@@ -118,6 +118,8 @@ describe('a printout', () => {
     expect(html).toMatch(/^<title>Check what was read · Gasline<\/title>/);
     expect(openId(html)).toBe('paste');
     expect(caseOf(html)).toEqual({});
+    // no reply from the assistant over the confirm view: nothing is read until the values are used
+    expect(html).not.toContain('id="step-reply"');
     expect(readRows(html)).toEqual([
       ['Sample type', 'Arterial', 'named in the text'],
       ['pH', '7.26', 'pH          7.26'],

@@ -204,7 +204,7 @@
     window.setTimeout(() => {
       var reply = document.getElementById('step-reply');
       var active = document.activeElement;
-      if (!reply || !active || !active.closest('.entry--open')) return;
+      if (!reply || !active?.closest('.entry--open')) return;
       reply.scrollIntoView({ block: 'start' });
       var bar = document.getElementById('draft-head');
       var room =
