@@ -156,9 +156,6 @@ function formView(id: StepId, read: Read, p: Presentation) {
     if (f.autofocus) (opts.find((o) => o.checked) ?? opts[0]!).autofocus = true;
   }
   const stepErrors = placed.step.map((e) => ({ message: e.message, href: null as string | null }));
-  const fieldErrors = flat
-    .filter((f) => f.error)
-    .map((f) => ({ message: f.error!, href: `#${f.id}` }));
   // a unit question sits at its field, with the switch as one press (and the focus on it)
   const doubts = invalid?.doubts ?? [];
   for (const d of doubts) {
@@ -187,7 +184,9 @@ function formView(id: StepId, read: Read, p: Presentation) {
     paste: step.paste === 'box' && fresh,
     pasteLink: step.paste === 'link' && fresh && state.done.includes(PASTE_STEP),
     pasteStep: PASTE_STEP,
-    summaryErrors: [...stepErrors, ...fieldErrors],
+    // an error that belongs to a field is said there only (the focus goes to it); the note above the form holds
+    // what belongs to the step as a whole
+    summaryErrors: stepErrors,
     doubts: doubts.length,
     unitKept: invalid?.typed.unitKept ?? '',
     skippable: !!step.skippable,
