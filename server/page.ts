@@ -257,7 +257,7 @@ export function pageRoutes(deps: PageDeps): Hono {
       }
       const outcome = confirmPaste(state, intake, form, opts);
       if (outcome.ok)
-        return send(c, outcome.read, { announce: outcome.announce, pasted: outcome.remarks });
+        return send(c, outcome.read, { lead: outcome.announce, pasted: outcome.remarks });
       const view = pasteView(intake, form, outcome.errors);
       return send(
         c,

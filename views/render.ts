@@ -57,8 +57,10 @@ export interface Presentation {
   invalid?: Invalid | null;
   /** the step just answered (and the steps its answer reopened): the assistant replies to it */
   answered?: { id: StepId; reopened: StepId[] } | null;
-  /** the text for the live region */
+  /** the text for the live region (else the reply's own words) */
   announce?: string;
+  /** words said before the reply's own in the live region (what a paste kept) */
+  lead?: string;
   /** the clinician's own edits of the draft, kept across a preview */
   edited?: { note?: string; handover?: string } | null;
   /** steps whose questions changed because of an earlier answer */
@@ -254,7 +256,7 @@ export function flowView(read: Read | FlowState, deps: RenderDeps, p: Presentati
   const openTitle = p.paste ? p.paste.title : open ? STEPS[open].title : null;
   return {
     title: `${openTitle ?? (draft ? 'Draft note' : 'New case')} · Gasline`,
-    announce: p.announce ?? announceOf(said),
+    announce: p.announce ?? [p.lead, announceOf(said)].filter(Boolean).join(' '),
     notice: p.notice ?? null,
     launch: p.launch ?? null,
     state: stateFields(state),

@@ -163,7 +163,9 @@ describe('a printout', () => {
     expect(html).toMatch(
       /id="step-gas">[\s\S]*?<span class="value">pH 7.26<\/span><span class="value">PaCO2 29 mmHg<\/span><span class="value">PaO2 84 mmHg<\/span><span class="value">HCO3 13.6 mmol\/L<\/span><span class="value">Base excess -12.4 mmol\/L<\/span><span class="value">Lactate 7.8 mmol\/L<\/span>/,
     );
-    expect(announced(html)).toBe('Kept from the paste: 10 values. Next: oxygen and ventilation.');
+    expect(announced(html)).toMatch(
+      /^Kept from the paste: 10 values\. Reads now: ABG pH 7\.26, PaCO2 29 mmHg, HCO3 13\.6 mmol\/L: raised-AG metabolic acidosis.* Next, oxygen and ventilation: FiO2 gives the A-a gradient/,
+    );
 
     // the rest as usual, to a draft written from the same case the API would get
     let page = (await answer(html, 'oxygen', { 'oxygen.fio2': '21', ventilated: 'no' })).html;
