@@ -119,7 +119,7 @@ async function inputsInLine(page: Page) {
 /** The page keeps its width: nothing wider than the viewport. */
 const pageWidth = (page: Page) => page.evaluate(() => document.documentElement.scrollWidth);
 
-describe.skipIf(!run)('a conversation, not a form', () => {
+describe.skipIf(!run)('a conversation, not a form', { timeout: 120_000 }, () => {
   let h: Harness;
   const counts: Record<string, number> = {};
   beforeAll(async () => {

@@ -22,7 +22,8 @@ const num = (page: Page, label: string) =>
 
 const run = browserGate('test/e2e/page.test.ts');
 
-describe.skipIf(!run)('the step-by-step page in Chromium', () => {
+// each step now redraws the draft and its map beside the question: the walks take longer on a busy machine
+describe.skipIf(!run)('the step-by-step page in Chromium', { timeout: 90_000 }, () => {
   let h: Harness;
   beforeAll(async () => {
     h = await startHarness();

@@ -53,7 +53,7 @@ const BUNDLE = JSON.stringify(
   2,
 );
 
-describe.skipIf(!run)('pasting results and following up, in Chromium', () => {
+describe.skipIf(!run)('pasting results and following up, in Chromium', { timeout: 90_000 }, () => {
   let h: Harness;
   beforeAll(async () => {
     h = await startHarness();
