@@ -292,8 +292,9 @@ export function replyOf(
   const list = statuses(read.state, read.ctx);
   const from = answered ? list.findIndex((s) => s.id === answered) : -1;
   const to = open ? list.findIndex((s) => s.id === open) : list.length;
+  // the steps passed over since the answer (without an answer, the log already shows them)
   const passed = list
-    .slice(from + 1, Math.max(from + 1, to))
+    .slice(from + 1, answered ? Math.max(from + 1, to) : from + 1)
     .flatMap((s) => (s.status === 'skipped' && s.reason ? [s.reason] : []));
   const phrases = answered ? summary(STEPS[answered], read.ctx) : [];
   return {

@@ -56,7 +56,14 @@ describe('the draft from the first gas', () => {
     let html = await afterGas({ 'gas.ph': '7.22', 'gas.pco2': '21', 'gas.hco3': '8.5' });
     html = (await answer(html, 'chemistry', {}, 'skip')).html;
     expect(openId(html)).toBe('oxygen');
-    expect(reply(html)).toContain('Timing not asked: these numbers show no respiratory process');
+    // said once on the page, in the log, and to a screen reader in the live region with the reply
+    expect(html).toMatch(
+      /id="step-timing">\s*<p class="skipped">Timing not asked: these numbers show no respiratory process/,
+    );
+    expect(reply(html)).not.toContain('Timing not asked');
+    expect(html).toMatch(
+      /<hx-partial[^>]*>Reads now: [^<]*Timing not asked: these numbers show no respiratory process/,
+    );
     expect(reply(html)).toContain('Next, oxygen and ventilation: FiO2 gives the A-a gradient');
   });
 });
