@@ -11,6 +11,7 @@ import { jsonError } from './errors.ts';
 import { launch, launchView, type LaunchSettings } from './launch/index.ts';
 import { createNoteRenderer, TemplateError, type NoteRenderer } from '../templates/index.ts';
 import type { InterpretOptions } from '../calc/index.ts';
+import type { UnitChoices } from './unitsSetting.ts';
 
 export interface AppOptions {
   /** a department's folder of note templates (NOTE_TEMPLATES) */
@@ -37,6 +38,8 @@ export interface AppOptions {
   busy?: () => boolean;
   /** requests in progress at most in this process; more are answered 503 at once (MAX_IN_FLIGHT) */
   maxInFlight?: number;
+  /** the units a new case starts in (UNITS, read by server/unitsSetting.ts) */
+  units?: UnitChoices;
 }
 
 export function createApp(options: AppOptions = {}): Hono {
@@ -74,6 +77,7 @@ export function createApp(options: AppOptions = {}): Hono {
       renderer,
       interpretOptions: options.interpretOptions,
       launchView: launchViewFor,
+      units: options.units,
     }),
   );
 

@@ -4,6 +4,7 @@
 import { createNoteRenderer, type NoteRenderer } from '../templates/index.ts';
 import { readSettings, type LaunchSettings } from './launch/index.ts';
 import { allowedHostNames } from './security.ts';
+import { parseUnits, type UnitChoices } from './unitsSetting.ts';
 
 export interface Limits {
   /** time to receive a request's headers (Node's server.headersTimeout) */
@@ -31,6 +32,8 @@ export interface Config {
   hsts: boolean;
   cspReports: boolean;
   requestLog: boolean;
+  /** the units a new case starts in (UNITS, server/unitsSetting.ts) */
+  units: UnitChoices;
   limits: Limits;
   /** lines to print once at start-up */
   messages: string[];
@@ -105,6 +108,9 @@ export function readConfig(
       error: `ALLOWED_ORIGINS entry "${notUrl}" is not an origin (https://host)`,
     };
 
+  const units = parseUnits(env.UNITS ?? '');
+  if (!units.ok) return { ok: false, error: units.error };
+
   const templateDir = env.NOTE_TEMPLATES?.trim() || null;
   let renderer: NoteRenderer;
   try {
@@ -139,6 +145,7 @@ export function readConfig(
       hsts: hsts as boolean,
       cspReports: cspReports as boolean,
       requestLog: env.REQUEST_LOG !== 'off',
+      units: units.units,
       limits: {
         headersTimeoutMs: HEADERS_TIMEOUT_MS,
         requestTimeoutMs: REQUEST_TIMEOUT_MS,

@@ -34,6 +34,7 @@ export function startServer(env: NodeJS.ProcessEnv = process.env) {
   let loop: LoopWatch | null = null;
   const app = createApp({
     renderer: config.renderer,
+    units: config.units,
     launch: config.launch,
     frameAncestors: config.frameAncestors,
     allowedOrigins: config.allowedOrigins,

@@ -9,7 +9,6 @@ import { staticRoutes } from './static.ts';
 import { formStrings } from './form.ts';
 import type { InterpretOptions, ParsedCase } from '../calc/index.ts';
 import {
-  announceAnswer,
   answerStep,
   canOpen,
   emptyState,
@@ -39,7 +38,8 @@ import {
   renderProblem,
   type Presentation,
 } from '../views/render.ts';
-import { PASTE_STEP, STEPS, isStepId } from '../views/steps.ts';
+import { GAS_STEP, PASTE_STEP, STEPS, isStepId } from '../views/steps.ts';
+import { rememberUnits, startingUnits, type UnitChoices } from './unitsSetting.ts';
 import type { FormValues } from '../views/paths.ts';
 
 export interface PageDeps {
@@ -47,7 +47,11 @@ export interface PageDeps {
   interpretOptions?: InterpretOptions;
   /** the launch from the record, when on: its start link and whether this browser may file the draft back */
   launchView?: (c: Context) => Presentation['launch'];
+  /** the units a new case starts in (UNITS), before this browser's own preference */
+  units?: UnitChoices;
 }
+
+const MODES = { skip: 'skip', finish: 'finish' } as const;
 
 const FORM_TYPES = new Set(['application/x-www-form-urlencoded', 'multipart/form-data']);
 
@@ -128,7 +132,9 @@ export function pageRoutes(deps: PageDeps): Hono {
 
   page.route('/', staticRoutes());
 
-  page.get('/', (c) => send(c, readOf(emptyState()), { announce: '' }));
+  page.get('/', (c) =>
+    send(c, readOf(emptyState(startingUnits(c, deps.units ?? {}))), { announce: '' }),
+  );
   // after a post without script the address bar shows the post's path: a reload or a bookmark starts afresh
   for (const path of ['/step', '/open', '/preview', '/paste', '/followup'])
     page.get(path, (c) => c.redirect('/', 303));
@@ -139,15 +145,20 @@ export function pageRoutes(deps: PageDeps): Hono {
     const { form, state } = got;
     const id = form.step ?? '';
     if (!isStepId(id)) return problem(c, 400, 'The form did not say which step it answers.');
-    const outcome = answerStep(state, id, form, form.action === 'skip', opts);
+    const mode = MODES[form.action as keyof typeof MODES] ?? 'next';
+    const outcome = answerStep(state, id, form, mode, opts);
     if (!outcome.read) {
       const invalid = outcome.invalid!;
       const n = invalid.errors.length;
-      const announce = `${n === 1 ? 'One answer needs' : `${n} answers need`} a change: ${invalid.errors[0]!.message}.`;
-      return send(c, readIn(state, got.parsed), { invalid, announce }, 422);
+      const doubt = invalid.doubts?.[0];
+      const announce = doubt
+        ? `${doubt.message} ${doubt.switchLabel}?`
+        : `${n === 1 ? 'One answer needs' : `${n} answers need`} a look: ${invalid.errors[0]!.message}.`;
+      return send(c, readIn(state, got.parsed), { invalid, announce }, doubt && !n ? 200 : 422);
     }
+    rememberUnits(c, outcome.read.state.answers.units);
     return send(c, outcome.read, {
-      announce: announceAnswer(outcome.read, id, outcome.reopened),
+      answered: { id, reopened: outcome.reopened },
       reopened: outcome.reopened,
     });
   });
@@ -236,7 +247,7 @@ export function pageRoutes(deps: PageDeps): Hono {
       }
       const outcome = confirmPaste(state, intake, form, opts);
       if (outcome.ok)
-        return send(c, outcome.read, { announce: outcome.announce, pasted: outcome.remarks });
+        return send(c, outcome.read, { lead: outcome.announce, pasted: outcome.remarks });
       const view = pasteView(intake, form, outcome.errors);
       return send(
         c,
@@ -275,6 +286,24 @@ export function pageRoutes(deps: PageDeps): Hono {
       );
     }
     const what = [outcome.moved.takenAt, outcome.moved.label].filter(Boolean).join(', ');
+    // the follow-up form may carry the new gas itself: then it is answered at once, as on the gas step
+    const withGas = Object.keys(form).some(
+      (k) => k.startsWith('gas.') && (form[k] ?? '').trim() !== '',
+    );
+    if (withGas) {
+      const answered = answerStep(outcome.state, GAS_STEP, form, 'next', opts);
+      if (answered.read)
+        return send(c, answered.read, { answered: { id: GAS_STEP, reopened: [] } });
+      return send(
+        c,
+        readOf(outcome.state),
+        {
+          invalid: answered.invalid,
+          announce: `The follow-up gas needs a look: ${answered.invalid?.errors[0]?.message ?? answered.invalid?.doubts?.[0]?.message ?? ''}`,
+        },
+        422,
+      );
+    }
     // awaiting the follow-up gas, the case holds no gas to interpret
     return send(c, readOf(outcome.state), {
       announce: `The gas${what ? ` (${String(what)})` : ''} is now the earlier gas. Enter the follow-up gas.`,

@@ -15,16 +15,23 @@ export function ownedPaths(groups: Group[]): string[] {
   );
 }
 
+/**
+ * How an answer is given: with Next, by skipping the step (its numbers cleared, its choices left as they were), or
+ * with Finish (what was typed is taken, and a required choice left open stays unanswered instead of refused).
+ */
+export type AnswerMode = 'next' | 'skip' | 'finish';
+
 /** Write a step's submitted fields into a copy of the answers. UI-level errors (a required choice) come back too. */
 export function applyStep(
   step: StepDef,
   answers: Json,
   form: FormValues,
   ctx: StepContext,
-  skip = false,
+  mode: AnswerMode = 'next',
 ): { answers: Json; errors: FieldError[] } {
   const next = structuredClone(answers);
   const errors: FieldError[] = [];
+  const skip = mode === 'skip';
   for (const field of allFields(step.groups(ctx))) {
     if (field.kind === 'number') {
       setPath(next, field.name, skip ? undefined : readNumber(form[field.name]));
@@ -36,6 +43,7 @@ export function applyStep(
     }
     const raw = form[field.name];
     const required = field.required ?? `${field.label}: choose one`;
+    if (skip || (mode === 'finish' && (raw === undefined || raw === ''))) continue;
     if ((raw === undefined || raw === '') && field.required) {
       errors.push({ path: field.name, message: field.required });
       continue;

@@ -2,7 +2,14 @@
 // H+/CO2 chart, the explain view and the follow-up form. Built from the findings the request already holds.
 import { marked } from 'marked';
 import sanitizeHtml from 'sanitize-html';
-import { MAX_PREVIOUS_GASES, units as U, type Findings } from '../calc/index.ts';
+import {
+  FIELD,
+  MAX_PREVIOUS_GASES,
+  enteredUnit,
+  units as U,
+  type Findings,
+} from '../calc/index.ts';
+import { contextOf, fieldLabel } from './stepContext.ts';
 import type { NoteRenderer } from '../templates/index.ts';
 import { acidBaseChart } from './chart.ts';
 import { earlierGases, type Json } from './paths.ts';
@@ -17,6 +24,8 @@ export interface DraftOptions {
   /** filing the draft back into the record, when the launch allows it, and what the last filing gave */
   fileBack: { filed: { ok: boolean; message: string } | null } | null;
   autofocus: boolean;
+  /** when the current gas was taken, as the clinician gave it */
+  taken: string;
 }
 
 const SEVERITY_LABEL = { critical: 'Critical', warning: 'Check', info: 'Note' } as const;
@@ -57,16 +66,32 @@ function chartView(f: Findings) {
   return { svg: chart.svg, lines: chart.text.split('\n').filter((line) => line.trim() !== '') };
 }
 
+/** The three values that make a gas, asked on the draft so that a later gas is a few key presses away. */
+const FOLLOW_UP_FIELDS = ['gas.ph', 'gas.pco2', 'gas.hco3'] as const;
+
 function followUpView(answers: Json, followUp: DraftOptions['followUp']) {
   const count = earlierGases(answers).length;
+  const ctx = contextOf(answers, null);
   return {
     can: count < MAX_PREVIOUS_GASES,
     count,
     max: MAX_PREVIOUS_GASES,
     error: followUp?.error ?? null,
     value: followUp?.typed ?? '',
+    fields: FOLLOW_UP_FIELDS.map((path) => ({
+      id: `followup-${path.replace('.', '-')}`,
+      name: path,
+      label: fieldLabel(FIELD[path], ctx.sample),
+      unit: enteredUnit(FIELD[path], ctx.units),
+    })),
   };
 }
+
+/** When the draft was written, for the printed page (the browser shows it in local time). */
+const draftedAt = (now: Date) => ({
+  iso: now.toISOString(),
+  text: `${now.toISOString().slice(0, 16).replace('T', ' ')} UTC`,
+});
 
 export function draftView(f: Findings, answers: Json, renderer: NoteRenderer, o: DraftOptions) {
   const { format, edited } = o;
@@ -78,9 +103,19 @@ export function draftView(f: Findings, answers: Json, renderer: NoteRenderer, o:
     format,
     line: format === 'text' ? note.line : renderer.render(f, { format: 'text' }).line,
     text,
+    // the note as the server wrote it, beside the box: the page's script tells the clinician's edits from it
+    drafted: draftedAt(new Date()),
+    // the full reasoning, one toggle away; the same as the chart-ready note until that is written shorter
+    full: note.full,
+    fullDiffers: note.full !== note.text,
+    taken: o.taken,
     handover,
     withheld: f.withheld,
-    rows: { text: rowsFor(text, 10, 60), handover: rowsFor(handover, 5, 30) },
+    rows: {
+      text: rowsFor(text, 6, 60),
+      full: rowsFor(note.full, 6, 80),
+      handover: rowsFor(handover, 4, 30),
+    },
     edited: !!edited,
     previewHtml: format === 'markdown' ? markdownPreview(text) : null,
     flags: f.flags.map((flag) => ({

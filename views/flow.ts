@@ -11,8 +11,9 @@ import {
   type InterpretOptions,
   type ParsedCase,
 } from '../calc/index.ts';
-import { applyStep, summary } from './answers.ts';
+import { applyStep, summary, type AnswerMode } from './answers.ts';
 import { isObject, type FormValues, type Json } from './paths.ts';
+import { keptOf, unitDoubts, withSwitch, type UnitDoubt } from './unitDoubt.ts';
 import {
   GAS_STEP,
   STEPS,
@@ -30,9 +31,22 @@ export interface FlowState {
   answers: Json;
   done: StepId[];
   format: Format;
+  /** the clinician pressed Finish: no question is open unless one is opened again */
+  finished?: boolean;
+  /** when the current gas was taken (a time or a label), as the clinician gave it; '' when not given */
+  taken?: string;
 }
 
-export const emptyState = (): FlowState => ({ answers: {}, done: [], format: 'text' });
+/** A new case, its units set beforehand (the deployment's default or the clinician's own preference). */
+export const emptyState = (units: Json | null = null): FlowState => ({
+  answers: units && Object.keys(units).length ? { units: { ...units } } : {},
+  done: [],
+  format: 'text',
+  finished: false,
+  taken: '',
+});
+
+const MAX_TAKEN = 80;
 
 /** A follow-up is under way: the last gas has become an earlier one and the new gas is not yet entered. */
 export const awaitingFollowUp = (answers: Json): boolean =>
@@ -110,10 +124,15 @@ export function readState(form: FormValues): ReadResult {
   // a step counts as answered only with the gas behind it (or, during a follow-up, the earlier gas), the gas step
   // only with the gas itself; before any gas, only the steps answered before it
   const held = 'gas' in answers || awaitingFollowUp(answers);
+  const taken = (form.taken ?? '').trim().replace(/\s+/g, ' ');
+  if (taken.length > MAX_TAKEN)
+    return { ok: false, message: 'The time of the gas sent with the form is too long.' };
   const state: FlowState = {
     answers,
     done: done.filter((s) => (held ? s !== GAS_STEP || 'gas' in answers : !!STEPS[s].beforeGas)),
     format: form.format === 'markdown' ? 'markdown' : 'text',
+    finished: form.finished === 'yes' && 'gas' in answers,
+    taken,
   };
   return { ok: true, state, parsed };
 }
@@ -147,7 +166,7 @@ export function readOf(
           (d) => d.code === 'respiratory_acidosis' || d.code === 'respiratory_alkalosis',
         )
       : null;
-  return { state, findings: f, ctx: contextOf(state.answers, respiratory) };
+  return { state, findings: f, ctx: contextOf(state.answers, respiratory, f) };
 }
 
 export type Status = { id: StepId; status: 'done' | 'skipped' | 'todo'; reason: string | null };
@@ -161,47 +180,72 @@ export function statuses(state: FlowState, ctx: StepContext): Status[] {
   });
 }
 
-/** May the clinician open this step now: it is answered, or skipped and its step lets it be opened anyway. */
+/**
+ * May the clinician open this step now: it is answered, or skipped and its step lets it be opened anyway, or not
+ * yet answered while the reading stands (after Finish, or to answer it out of turn).
+ */
 export function canOpen(read: Read, id: StepId): boolean {
   const status = statuses(read.state, read.ctx).find((s) => s.id === id)!.status;
-  return status === 'done' || (status === 'skipped' && !!STEPS[id].openWhenSkipped);
+  return (
+    status === 'done' ||
+    (status === 'skipped' && !!STEPS[id].openWhenSkipped) ||
+    (status === 'todo' && read.findings !== null)
+  );
+}
+
+/** The step asked now: the one opened, else the first not yet answered, unless the clinician has finished. */
+export function openStep(read: Read, explicit: StepId | null): StepId | null {
+  if (explicit) return explicit;
+  if (read.state.finished && read.findings) return null;
+  return statuses(read.state, read.ctx).find((s) => s.status === 'todo')?.id ?? null;
+}
+
+/** A step left open: its errors, the unit questions at its fields, and what was typed. */
+export interface Invalid {
+  step: StepId;
+  errors: FieldError[];
+  typed: FormValues;
+  doubts?: UnitDoubt[];
 }
 
 export interface StepOutcome {
   state: FlowState;
   /** the step left open with its errors and what was typed, when the answer did not pass */
-  invalid: { step: StepId; errors: FieldError[]; typed: FormValues } | null;
+  invalid: Invalid | null;
   /** steps that must be looked at again because an answer changed what they ask */
   reopened: StepId[];
   /** the new state read, when the answer was taken */
   read: Read | null;
 }
 
-/** Answer one step: write its fields, check the whole case with the schema and the core once, and move on. */
+/**
+ * Answer one step: write its fields, check the whole case with the schema and the core once, and move on. A unit
+ * switch pressed on a unit question is taken as the unit chosen; Finish takes the answer and asks nothing more.
+ */
 export function answerStep(
   state: FlowState,
   id: StepId,
-  form: FormValues,
-  skip: boolean,
+  sent: FormValues,
+  mode: AnswerMode,
   options?: InterpretOptions,
 ): StepOutcome {
   const step = STEPS[id];
+  const form = withSwitch(sent);
   // a step's questions depend on the case's sample and units, not on its findings
-  const { answers, errors } = applyStep(
-    step,
-    state.answers,
-    form,
-    contextOf(state.answers, null),
-    skip,
-  );
-  const refused = (list: FieldError[], typed = form): StepOutcome => ({
+  const ctx = contextOf(state.answers, null);
+  const { answers, errors } = applyStep(step, state.answers, form, ctx, mode);
+  const kept = keptOf(form);
+  const refused = (list: FieldError[], typed = form, doubts: UnitDoubt[] = []): StepOutcome => ({
     state,
-    invalid: { step: id, errors: list, typed },
+    invalid: { step: id, errors: list, typed: { ...typed, unitKept: [...kept].join(' ') }, doubts },
     reopened: [],
     read: null,
   });
   const settled = step.settle?.({ before: state.answers, answers, done: state.done }) ?? {};
   if (settled.refuse) return refused([settled.refuse]);
+  // a value that makes sense only in another unit is asked about before the schema could refuse it
+  const doubts = mode === 'skip' ? [] : unitDoubts(step.groups(ctx), answers, kept);
+  if (doubts.length) return refused([], form, doubts);
 
   const checked = checkAnswers(answers);
   const all = errors.concat(checked.errors.filter((e) => !errors.some((u) => u.path === e.path)));
@@ -218,28 +262,51 @@ export function answerStep(
   const reopened = settled.reopen ?? [];
   const leave = new Set<StepId>([id, ...reopened, ...(settled.undo ?? [])]);
   const done = [...state.done.filter((s) => !leave.has(s)), id];
-  const next = { ...state, answers, done: STEP_IDS.filter((s) => done.includes(s)) };
+  const next: FlowState = {
+    ...state,
+    answers,
+    done: STEP_IDS.filter((s) => done.includes(s)),
+    finished: state.finished || mode === 'finish',
+  };
   return { state: next, invalid: null, reopened, read: readOf(next, options, null, findings) };
 }
 
-/** What the live region says after an answer: what was kept, what was not asked and why, what comes next. */
-export function announceAnswer(read: Read, id: StepId, reopened: StepId[]): string {
-  const phrases = summary(STEPS[id], read.ctx);
-  const parts = [`${STEPS[id].title}: ${phrases.length ? phrases.join(', ') : 'nothing entered'}.`];
+/** What the assistant says after an answer, besides the reading itself: what it passed over, what it asks next and why. */
+export interface Reply {
+  /** the step just answered and how it reads back ("Gas: pH 7.28, PaCO2 61 mmHg") */
+  said: string | null;
+  /** steps passed over since, with the reason */
+  passed: string[];
+  /** steps to look at again because their question changed */
+  reopened: string | null;
+  /** the question asked next and why, or null when nothing more is asked */
+  next: { title: string; why: string | null } | null;
+}
+
+export function replyOf(
+  read: Read,
+  open: StepId | null,
+  answered: StepId | null,
+  reopened: StepId[] = [],
+): Reply {
   const list = statuses(read.state, read.ctx);
-  const next = list.find((s) => s.status === 'todo');
-  const from = list.findIndex((s) => s.id === id);
-  const to = next ? list.findIndex((s) => s.id === next.id) : list.length;
-  for (const s of list.slice(from + 1, to))
-    if (s.status === 'skipped' && s.reason) parts.push(s.reason);
-  if (reopened.length)
-    parts.push(
-      `Check ${reopened.map((s) => STEPS[s].title.toLowerCase()).join(' and ')} again: the question changed.`,
-    );
-  parts.push(
-    next ? `Next: ${STEPS[next.id].title.toLowerCase()}.` : 'The draft note is ready below.',
-  );
-  return parts.join(' ');
+  const from = answered ? list.findIndex((s) => s.id === answered) : -1;
+  const to = open ? list.findIndex((s) => s.id === open) : list.length;
+  // the steps passed over since the answer (without an answer, the log already shows them)
+  const passed = list
+    .slice(from + 1, answered ? Math.max(from + 1, to) : from + 1)
+    .flatMap((s) => (s.status === 'skipped' && s.reason ? [s.reason] : []));
+  const phrases = answered ? summary(STEPS[answered], read.ctx) : [];
+  return {
+    said: answered
+      ? `${STEPS[answered].title}: ${phrases.length ? phrases.join(', ') : 'nothing entered'}.`
+      : null,
+    passed,
+    reopened: reopened.length
+      ? `Check ${reopened.map((s) => STEPS[s].title.toLowerCase()).join(' and ')} again: the question changed.`
+      : null,
+    next: open ? { title: STEPS[open].title, why: STEPS[open].why?.(read.ctx) ?? null } : null,
+  };
 }
 
 /** Split errors between the fields of a step and the step as a whole. */

@@ -4,6 +4,7 @@ import {
   FIELD,
   MAX_PREVIOUS_GASES,
   PREVIOUS_SETTINGS,
+  enteredUnit,
   fieldsOf,
   type FieldSpec,
   type ParsedCase,
@@ -37,10 +38,17 @@ function settingsOf(answers: Json): Json {
   return out;
 }
 
+/** A time or a label as typed: a date and time is kept as takenAt, other words as a label. */
+function whenOf(text: string): Json {
+  if (!text) return {};
+  return DATE_TIME.test(text) && text.length <= 40 ? { takenAt: text } : { label: text };
+}
+
 /**
  * Move the current gas, with its FiO2 and PEEP and its VT and RR, into the earlier gases, and open the gas,
- * oxygen and ventilator steps for the new values. Chemistry, patient and context stay; the oxygen and
- * ventilator answers stay in the forms as a starting point, to be confirmed for the new gas.
+ * oxygen and ventilator steps for the new values. The moved gas keeps the time it was given when it was
+ * entered (or "first gas"); the time typed now belongs to the new gas. Chemistry, patient and context stay; the
+ * oxygen and ventilator answers stay in the forms as a starting point, to be confirmed for the new gas.
  */
 export function startFollowUp(state: FlowState, when: string): FollowUpOutcome {
   const answers = structuredClone(state.answers);
@@ -58,9 +66,8 @@ export function startFollowUp(state: FlowState, when: string): FollowUpOutcome {
       ok: false,
       message: `Keep the time or label to ${MAX_WHEN} characters or fewer (it has ${text.length}).`,
     };
-  const moved: Json = {};
-  if (text && DATE_TIME.test(text) && text.length <= 40) moved.takenAt = text;
-  else if (text) moved.label = text;
+  const own = (state.taken ?? '').trim();
+  const moved: Json = whenOf(own || (earlier.length ? '' : 'first gas'));
   moved.gas = answers.gas;
   Object.assign(moved, settingsOf(answers));
   answers.previous = [...earlier, moved];
@@ -72,8 +79,50 @@ export function startFollowUp(state: FlowState, when: string): FollowUpOutcome {
       message: `The earlier gas could not be kept: ${errors.map((e) => e.message).join('; ')}.`,
     };
   const done = state.done.filter((s) => !FOLLOW_UP_STEPS.has(s));
-  return { ok: true, state: { ...state, answers, done }, moved };
+  return {
+    ok: true,
+    state: { ...state, answers, done, finished: false, taken: text },
+    moved,
+  };
 }
+
+/** One value then and now ("RR 22 to 28/min"). */
+export interface Change {
+  label: string;
+  then: number;
+  now: number;
+  unit: string;
+}
+
+/**
+ * What changed since the last earlier gas: the gas values both hold, and the settings it was taken on (FiO2,
+ * PEEP, VT, RR) where either holds one. Values as entered, in the case's units.
+ */
+export function changesSince(
+  answers: Json,
+): { when: string | null; gas: Change[]; settings: Change[] } | null {
+  const last = earlierGases(answers).at(-1);
+  if (!last || !isObject(answers.gas)) return null;
+  const units = contextOf(answers, null).units;
+  const pair = (f: FieldSpec, then: unknown, now: unknown): Change[] =>
+    typeof then === 'number' && typeof now === 'number'
+      ? [{ label: f.label, then, now, unit: enteredUnit(f, units) }]
+      : [];
+  const gas = fieldsOf('gas')
+    .filter((f) => !f.optional)
+    .flatMap((f) => pair(f, getPath(last, f.path), getPath(answers, f.path)));
+  const settings = PREVIOUS_SETTINGS.flatMap((path) => {
+    const then = getPath(last, path);
+    const now = getPath(answers, path);
+    return then === now ? [] : pair(FIELD[path], then, now);
+  });
+  const when = [last.takenAt, last.label].find((x) => typeof x === 'string' && x.trim() !== '');
+  return { when: typeof when === 'string' ? when : null, gas, settings };
+}
+
+/** A change as people say it: "RR 22 to 28/min", "PaCO2 61 to 50 mmHg". */
+export const changeText = (c: Change) =>
+  `${c.label} ${c.then} to ${c.now}${c.unit && !c.unit.startsWith('/') ? ' ' : ''}${c.unit}`;
 
 /** Undo a follow-up not yet entered: the last earlier gas becomes the current gas again. */
 export function cancelFollowUp(
@@ -97,8 +146,14 @@ export function cancelFollowUp(
     ...state.done,
     ...[...FOLLOW_UP_STEPS].filter((s) => STEPS[s].skipReason(ctx, true) === null),
   ]);
+  const own = [last.takenAt, last.label].find((x) => typeof x === 'string' && x !== 'first gas');
   return {
-    state: { ...state, answers, done: STEP_IDS.filter((s) => restored.has(s)) },
+    state: {
+      ...state,
+      answers,
+      done: STEP_IDS.filter((s) => restored.has(s)),
+      taken: typeof own === 'string' ? own : '',
+    },
     parsed: checked.parsed,
   };
 }

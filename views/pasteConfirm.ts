@@ -171,6 +171,7 @@ export function confirmPaste(
     remarks.push(...(answered.open.get(first) ?? []));
   }
   if (dropped.length) remarks.push(`Not used, as the sample is ${sample}: ${dropped.join(', ')}.`);
-  const announce = `Kept from the paste: ${kept} value${kept === 1 ? '' : 's'}.${dropped.length ? ` Not used for a ${sample} sample: ${dropped.join(', ')}.` : ''} ${first ? `Next: ${STEPS[first].title.toLowerCase()}.` : 'The draft note is ready below.'}`;
+  // what comes next, and the reading, are said by the reply that follows these words
+  const announce = `Kept from the paste: ${kept} value${kept === 1 ? '' : 's'}.${dropped.length ? ` Not used for a ${sample} sample: ${dropped.join(', ')}.` : ''}`;
   return { ok: true, read, announce, remarks };
 }

@@ -8,7 +8,6 @@ import {
   enteredUnit,
   fieldsOf,
   inTimeOrder,
-  type FieldError,
   type InterpretOptions,
 } from '../calc/index.ts';
 import type { NoteRenderer } from '../templates/index.ts';
@@ -17,13 +16,16 @@ import { draftView } from './draft.ts';
 import type { FieldDef } from './fields.ts';
 import {
   awaitingFollowUp,
+  openStep,
   placeErrors,
   readOf,
   startsCase,
   statuses,
   type FlowState,
+  type Invalid,
   type Read,
 } from './flow.ts';
+import { announceOf, replyView } from './reply.ts';
 import type { PasteView } from './paste.ts';
 import { earlierGases, getPath, type FormValues } from './paths.ts';
 import { PASTE_STEP, STEPS, caseLabel, type StepContext, type StepId } from './steps.ts';
@@ -52,9 +54,13 @@ export interface RenderDeps {
 export interface Presentation {
   /** the step opened for a change, or the one left open by an error */
   open?: StepId | null;
-  invalid?: { step: StepId; errors: FieldError[]; typed: FormValues } | null;
-  /** the text for the live region */
+  invalid?: Invalid | null;
+  /** the step just answered (and the steps its answer reopened): the assistant replies to it */
+  answered?: { id: StepId; reopened: StepId[] } | null;
+  /** the text for the live region (else the reply's own words) */
   announce?: string;
+  /** words said before the reply's own in the live region (what a paste kept) */
+  lead?: string;
   /** the clinician's own edits of the draft, kept across a preview */
   edited?: { note?: string; handover?: string } | null;
   /** steps whose questions changed because of an earlier answer */
@@ -152,9 +158,19 @@ function formView(id: StepId, read: Read, p: Presentation) {
     if (f.autofocus) (opts.find((o) => o.checked) ?? opts[0]!).autofocus = true;
   }
   const stepErrors = placed.step.map((e) => ({ message: e.message, href: null as string | null }));
-  const fieldErrors = flat
-    .filter((f) => f.error)
-    .map((f) => ({ message: f.error!, href: `#${f.id}` }));
+  // a unit question sits at its field, with the switch as one press (and the focus on it)
+  const doubts = invalid?.doubts ?? [];
+  for (const d of doubts) {
+    const at = flat.find((f) => f.name === d.path) as Record<string, unknown> | undefined;
+    if (at) at.doubt = { ...d, switchValue: `${d.unitName}=${d.switchTo}` };
+  }
+  if (doubts.length && !flat.some((f) => f.error)) {
+    for (const f of flat) f.autofocus = false;
+    const first = flat.find((f) => f.name === doubts[0]!.path) as
+      | Record<string, unknown>
+      | undefined;
+    if (first) (first.doubt as Record<string, unknown>).autofocus = true;
+  }
   const last = statuses({ ...state, done: [...state.done.filter((s) => s !== id), id] }, ctx).every(
     (s) => s.status !== 'todo',
   );
@@ -170,12 +186,18 @@ function formView(id: StepId, read: Read, p: Presentation) {
     paste: step.paste === 'box' && fresh,
     pasteLink: step.paste === 'link' && fresh && state.done.includes(PASTE_STEP),
     pasteStep: PASTE_STEP,
-    summaryErrors: [...stepErrors, ...fieldErrors],
+    // an error that belongs to a field is said there only (the focus goes to it); the note above the form holds
+    // what belongs to the step as a whole
+    summaryErrors: stepErrors,
+    doubts: doubts.length,
+    unitKept: invalid?.typed.unitKept ?? '',
     skippable: !!step.skippable,
+    // Finish is there once a reading stands: it takes this answer and asks nothing more
+    finish: !step.beforeGas && !last,
     quick: flat.some((f) => f.kind === 'quick'),
     reopened: (p.reopened ?? []).includes(id),
     unitAsked: invalid?.typed.unitAsked ?? null,
-    nextLabel: last ? 'Show the draft' : 'Next',
+    nextLabel: last ? 'Finish' : 'Next',
   };
 }
 
@@ -185,19 +207,21 @@ export function flowView(read: Read | FlowState, deps: RenderDeps, p: Presentati
   const r = 'ctx' in read ? read : readOf(read, deps.interpretOptions);
   const { state, ctx } = r;
   const list = statuses(state, ctx);
-  const explicit = p.invalid?.step ?? p.open ?? null;
-  const open = explicit ?? list.find((s) => s.status === 'todo')?.id ?? null;
+  const open = openStep(r, p.invalid?.step ?? p.open ?? null);
   const items: unknown[] = earlierLog(ctx);
   // a skipped step is shown once the conversation has got to it: before the first unanswered step,
-  // or among answers already given after it
+  // or among answers already given after it; after Finish, the steps not answered can still be added
   const frontier = list.findIndex((s) => s.status === 'todo');
   const lastDone = list.reduce((last, s, i) => (s.status === 'done' ? i : last), -1);
+  const note = r.findings ? deps.renderer.render(r.findings, { format: 'text' }) : null;
+  const said = replyView(r, p.paste ? null : open, p.answered ?? null, note?.line ?? null);
+
   list.forEach((s, i) => {
     const step = STEPS[s.id];
-    if (s.id === open && p.paste) {
-      items.push(p.paste);
-    } else if (s.id === open) {
-      items.push(formView(s.id, r, p));
+    if (s.id === open) {
+      // the confirm view of a paste speaks for itself; a reply comes once its values are used
+      if (!p.paste && (note || said.passed.length)) items.push(said);
+      items.push(p.paste ?? formView(s.id, r, p));
     } else if (s.status === 'done') {
       items.push({
         type: 'answer',
@@ -214,22 +238,25 @@ export function flowView(read: Read | FlowState, deps: RenderDeps, p: Presentati
         reason: s.reason,
         canOpen: !!step.openWhenSkipped,
       });
+    } else if (s.status === 'todo' && !open && note) {
+      items.push({ type: 'notAsked', id: s.id, title: step.title });
     }
   });
-  const draft =
-    open === null && r.findings
-      ? draftView(r.findings, state.answers, deps.renderer, {
-          format: state.format,
-          edited: p.edited ?? null,
-          followUp: p.followUp ?? null,
-          fileBack: p.launch?.fileBack ? { filed: p.filed ?? null } : null,
-          autofocus: !p.keepFocus && !p.followUp && !p.filed,
-        })
-      : null;
+  if (!open && note) items.push(said);
+  const draft = r.findings
+    ? draftView(r.findings, state.answers, deps.renderer, {
+        format: state.format,
+        edited: p.edited ?? null,
+        followUp: p.followUp ?? null,
+        fileBack: p.launch?.fileBack ? { filed: p.filed ?? null } : null,
+        autofocus: !open && !p.keepFocus && !p.followUp && !p.filed,
+        taken: state.taken ?? '',
+      })
+    : null;
   const openTitle = p.paste ? p.paste.title : open ? STEPS[open].title : null;
   return {
     title: `${openTitle ?? (draft ? 'Draft note' : 'New case')} · Gasline`,
-    announce: p.announce ?? '',
+    announce: p.announce ?? [p.lead, announceOf(said)].filter(Boolean).join(' '),
     notice: p.notice ?? null,
     launch: p.launch ?? null,
     state: stateFields(state),
@@ -283,7 +310,13 @@ function earlierLog(ctx: StepContext) {
 }
 
 export function stateFields(state: FlowState) {
-  return { case: JSON.stringify(state.answers), done: state.done.join(' '), format: state.format };
+  return {
+    case: JSON.stringify(state.answers),
+    done: state.done.join(' '),
+    format: state.format,
+    finished: state.finished ? 'yes' : '',
+    taken: state.taken ?? '',
+  };
 }
 
 export type FlowView = ReturnType<typeof flowView>;

@@ -32,6 +32,8 @@ export interface StepContext {
   units: U.Units;
   /** a respiratory process is present in the numbers so far (null: not yet known) */
   respiratory: boolean | null;
+  /** the reading so far, once the gas is in (what a step's question is for may depend on it) */
+  findings: Findings | null;
 }
 
 /** An answer just written, for its step's `settle` hook: the case before and after, the steps answered before. */
@@ -78,6 +80,8 @@ export interface StepSpec {
   hides?(f: FieldSpec, ctx: StepContext): boolean;
   /** short remarks shown with the form: a question left out, and why */
   remarks?(ctx: StepContext): string[];
+  /** why the step is asked now, in a few words: what its answer can change in the reading */
+  why?(ctx: StepContext): string;
   /** rules across the step's own fields, after they are written */
   finish?(answers: Json, form: FormValues, ctx: StepContext, errors: FieldError[]): void;
   /** what the answer changes in the rest of the case and the flow */
@@ -108,13 +112,18 @@ export const sampleOf = (answers: Json): Sample => {
   return s === 'venous' || s === 'capillary' ? s : 'arterial';
 };
 
-export function contextOf(answers: Json, respiratory: boolean | null): StepContext {
+export function contextOf(
+  answers: Json,
+  respiratory: boolean | null,
+  findings: Findings | null = null,
+): StepContext {
   // the answers have passed the schema before any step reads them
   return {
     answers,
     sample: sampleOf(answers),
     units: resolveUnits((answers.units ?? null) as ParsedCase['units']),
     respiratory,
+    findings,
   };
 }
 

@@ -3,6 +3,7 @@
 // number questions are not listed here: they are the rows of calc's table of fields with the step's id.
 import { FIELDS, type FieldError, type FieldSpec, type Findings } from '../calc/index.ts';
 import { earlierGases, getPath, setPath, type FormValues, type Json } from './paths.ts';
+import { keptOf } from './unitDoubt.ts';
 import {
   OXYGENATION_PATHS,
   gasLabel,
@@ -12,6 +13,8 @@ import {
 } from './stepContext.ts';
 
 const earlierCount = (ctx: StepContext) => earlierGases(ctx.answers).length;
+const reads = (ctx: StepContext, code: string) =>
+  !!ctx.findings?.disorders.some((d) => d.code === code);
 const followUpRemark = (ctx: StepContext, text: string) => (earlierCount(ctx) ? [text] : []);
 const arterial = (ctx: StepContext) => ctx.sample === 'arterial';
 
@@ -61,6 +64,8 @@ const gas: StepSpec = {
   title: 'Gas',
   question: 'Enter the gas as the analyser printed it.',
   paste: 'link',
+  why: (ctx) =>
+    `any two of pH, ${gasLabel(ctx.sample, 'CO2')} and HCO3 give the reading; the rest sharpens it.`,
   before: [
     {
       kind: 'choice',
@@ -119,6 +124,10 @@ const chemistry: StepSpec = {
   title: 'Chemistry',
   question: 'Chemistry from the same time, if you have it.',
   skippable: true,
+  why: (ctx) =>
+    reads(ctx, 'metabolic_acidosis')
+      ? 'a metabolic acidosis: Na, Cl and albumin give the anion gap, which sorts the cause.'
+      : 'Na, Cl and albumin give the anion gap, which can show a second process hidden behind this one.',
   lacking: (ctx) =>
     getPath(ctx.answers, 'chemistry.na') == null || getPath(ctx.answers, 'chemistry.cl') == null
       ? 'Na and Cl are both needed for the anion gap: add what the text did not have'
@@ -130,6 +139,8 @@ const timing: StepSpec = {
   title: 'Timing',
   question: 'How long has this been going on?',
   openWhenSkipped: true,
+  skippable: true,
+  why: () => 'a respiratory process: acute or chronic decides how much HCO3 change to expect.',
   before: [
     {
       kind: 'choice',
@@ -154,6 +165,11 @@ const oxygen: StepSpec = {
   id: 'oxygen',
   title: 'Oxygen and ventilation',
   question: 'Oxygen and breathing support when the sample was taken.',
+  skippable: true,
+  why: (ctx) =>
+    arterial(ctx)
+      ? 'FiO2 gives the A-a gradient and P/F ratio. On a ventilator? I can work out a setting for a target.'
+      : 'on a ventilator? I can work out a setting for a target.',
   hints: { 'oxygen.fio2': 'A fraction (0.4) or a percent (40). Room air is 0.21.' },
   // SpO2 with FiO2 gives the SpO2/FiO2 ratio; it is asked after the ventilator question (the table marks it
   // optional), so that the first three stay in reach
@@ -196,6 +212,8 @@ const ventilator: StepSpec = {
   id: 'ventilator',
   title: 'Ventilator',
   question: 'Ventilator settings and the target.',
+  skippable: true,
+  why: () => 'VT, RR and height give the rate or volume that reaches the target PaCO2.',
   after: [
     {
       kind: 'choice',
@@ -204,7 +222,7 @@ const ventilator: StepSpec = {
       options: [same('female', 'Female'), same('male', 'Male')],
     },
   ],
-  optionalLegend: 'Target (one of the two)',
+  optionalLegend: 'Target: a pH or a PaCO2',
   skipReason: (ctx) =>
     onVentilator(ctx.answers) ? null : 'No ventilator questions: not on a ventilator.',
   remarks: (ctx) =>
@@ -233,6 +251,11 @@ const patient: StepSpec = {
   id: 'patient',
   title: 'Patient',
   question: 'About the patient.',
+  skippable: true,
+  why: (ctx) =>
+    arterial(ctx)
+      ? 'age sets the expected A-a gradient; pregnancy changes what is normal.'
+      : 'an age under 16 and pregnancy change the rules the reading uses.',
   after: [
     {
       kind: 'choice',
@@ -272,7 +295,7 @@ export function unitQuestion(
 ): FieldError | null {
   if (!findings?.flags.some((x) => x.code === 'unit_ambiguous')) return null;
   const unit = String(getPath(answers, 'units.pressure') ?? 'mmHg');
-  if (form.unitAsked === unit) return null;
+  if (form.unitAsked === unit || keptOf(form).has('gas.pco2')) return null;
   const other = unit === 'mmHg' ? 'kPa' : 'mmHg';
   const pco2 = getPath(answers, 'gas.pco2');
   const ph = getPath(answers, 'gas.ph');

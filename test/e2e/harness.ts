@@ -86,7 +86,8 @@ export interface Session {
   navigations: () => number;
   /** a screenshot of the whole page, or with full: false of what the viewport shows now */
   shot(name: string, options?: { full?: boolean }): Promise<void>;
-  axe(label: string): Promise<void>;
+  /** axe-core: no serious or critical violation; with tags, no violation at all of those tags */
+  axe(label: string, tags?: string[]): Promise<void>;
   cspViolations(): Promise<string[]>;
 }
 
@@ -135,13 +136,13 @@ export async function openSession(
         fullPage: options.full ?? true,
       });
     },
-    async axe(label) {
+    async axe(label, tags) {
       // evaluated through the debugging protocol, which the page's CSP does not govern
       const loaded = await page.evaluate(
         () => typeof (window as unknown as { axe?: unknown }).axe !== 'undefined',
       );
       if (!loaded) await page.evaluate(AXE_SOURCE);
-      const found = await page.evaluate(async () => {
+      const found = await page.evaluate(async (only) => {
         const axe = (
           window as unknown as {
             axe: {
@@ -159,15 +160,20 @@ export async function openSession(
             };
           }
         ).axe;
-        const result = await axe.run(document, { resultTypes: ['violations'] });
+        const result = await axe.run(document, {
+          resultTypes: ['violations'],
+          ...(only ? { runOnly: { type: 'tag', values: only } } : {}),
+        });
         return result.violations.map((v) => ({
           id: v.id,
           impact: v.impact,
           help: v.help,
           targets: v.nodes.map((x) => x.target.join(' ')).slice(0, 3),
         }));
-      });
-      const severe = found.filter((v) => v.impact === 'serious' || v.impact === 'critical');
+      }, tags ?? null);
+      const severe = tags
+        ? found
+        : found.filter((v) => v.impact === 'serious' || v.impact === 'critical');
       expect(severe, `axe at ${label}`).toEqual([]);
       expect(errors, `script errors at ${label}`).toEqual([]);
     },

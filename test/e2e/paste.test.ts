@@ -53,7 +53,7 @@ const BUNDLE = JSON.stringify(
   2,
 );
 
-describe.skipIf(!run)('pasting results and following up, in Chromium', () => {
+describe.skipIf(!run)('pasting results and following up, in Chromium', { timeout: 90_000 }, () => {
   let h: Harness;
   beforeAll(async () => {
     h = await startHarness();
@@ -99,7 +99,7 @@ describe.skipIf(!run)('pasting results and following up, in Chromium', () => {
 
     // sample, gas and chemistry are answered; timing is not asked (Winters' band); the FiO2 read waits to be confirmed
     await waitOpen(page, 'oxygen');
-    expect(await page.locator('.entry--answer').count()).toBe(3);
+    expect(await page.locator('.entry--said').count()).toBe(3);
     expect(await num(page, 'FiO2').inputValue()).toBe('21');
     expect(await page.locator('#step-oxygen').textContent()).toContain(
       'From the paste: FiO2. Check and go on.',
@@ -111,7 +111,7 @@ describe.skipIf(!run)('pasting results and following up, in Chromium', () => {
     await waitOpen(page, 'patient');
     await num(page, 'Age').fill('52');
     await page.getByLabel('No', { exact: true }).check();
-    await page.getByRole('button', { name: 'Show the draft' }).click();
+    await page.getByRole('button', { name: 'Finish' }).click();
 
     await page.locator('#draft').waitFor();
     const expected = await apiNote(h.origin, {
@@ -129,13 +129,10 @@ describe.skipIf(!run)('pasting results and following up, in Chromium', () => {
     expect(text).toContain('24.4');
     expect(s.navigations()).toBe(1);
 
-    // the chart beside the draft on a wide screen, one gas on it, with the same in words
+    // the chart in the draft's column on a wide screen, beside the conversation, one gas on it, with the same in words
     const map = page.locator('#chart');
-    const [draftBox, mapBox] = [
-      await page.locator('#draft').boundingBox(),
-      await map.boundingBox(),
-    ];
-    expect(mapBox!.x).toBeGreaterThan(draftBox!.x + draftBox!.width - 1);
+    const [logBox, mapBox] = [await page.locator('.talk').boundingBox(), await map.boundingBox()];
+    expect(mapBox!.x).toBeGreaterThan(logBox!.x + logBox!.width - 1);
     expect(await map.locator('.gl-gas-marker').count()).toBe(1);
     await page.getByText('What the chart shows').click();
     // [H+] = 10^(9 - 7.26) = 55 nmol/L (definition of pH)
@@ -186,8 +183,8 @@ describe.skipIf(!run)('pasting results and following up, in Chromium', () => {
 
     await waitOpen(page, 'chemistry');
     expect(await page.locator('#step-gas').textContent()).toContain('PvCO2 51 mmHg');
-    await page.getByRole('button', { name: 'Skip, no chemistry' }).tap();
-    await page.locator('#step-chemistry.entry--answer').waitFor();
+    await page.getByRole('button', { name: 'Skip chemistry' }).tap();
+    await page.locator('#step-chemistry.entry--said').waitFor();
     if (await page.locator('#step-timing.entry--open').count())
       await page.getByRole('button', { name: 'Next' }).tap();
     await waitOpen(page, 'oxygen');
@@ -195,7 +192,7 @@ describe.skipIf(!run)('pasting results and following up, in Chromium', () => {
     await page.getByRole('button', { name: 'Next' }).tap();
     await waitOpen(page, 'patient');
     await num(page, 'Age').fill('38');
-    await page.getByRole('button', { name: 'Show the draft' }).tap();
+    await page.getByRole('button', { name: 'Finish' }).tap();
 
     await page.locator('#draft').waitFor();
     const text = await noteText(s);
@@ -254,17 +251,18 @@ describe.skipIf(!run)('pasting results and following up, in Chromium', () => {
     await page.getByRole('button', { name: 'Next' }).click();
     await waitOpen(page, 'patient');
     await num(page, 'Age').fill('66');
-    await page.getByRole('button', { name: 'Show the draft' }).click();
+    await page.getByRole('button', { name: 'Finish' }).click();
     await page.locator('#draft').waitFor();
     const first = await noteText(s);
     expect(first).not.toContain('Since the previous gas');
 
-    await page.getByLabel(/When this gas was taken, or a label/).fill('before RR change');
-    await page.getByRole('button', { name: 'Add a follow-up gas' }).click();
+    // the time typed is the new gas's own; the gas that had none becomes the "first gas"
+    await page.getByLabel(/New gas taken at/).fill('after RR change');
+    await page.getByRole('button', { name: 'Add the later gas' }).click();
     await waitOpen(page, 'gas');
     await expect.poll(() => focusedId(page)).toBe('f-gas-ph');
     expect(await page.locator('#step-earlier-1').textContent()).toMatch(
-      /Earlier gas · before RR change[\s\S]*pH 7\.22[\s\S]*RR 14\/min/,
+      /Earlier gas · first gas[\s\S]*pH 7\.22[\s\S]*RR 14\/min/,
     );
     expect(await page.locator('#draft').count()).toBe(0);
     await s.axe('follow-up gas');
@@ -282,7 +280,8 @@ describe.skipIf(!run)('pasting results and following up, in Chromium', () => {
     await s.shot('followup-ventilator');
     await num(page, 'RR').press('Enter');
 
-    await page.locator('#draft').waitFor();
+    await expect.poll(() => page.locator('li.entry--open').count()).toBe(0);
+    expect(await page.locator('.draft-when').textContent()).toContain('after RR change');
     const text = await noteText(s);
     expect(text).toBe(
       (
@@ -297,7 +296,7 @@ describe.skipIf(!run)('pasting results and following up, in Chromium', () => {
           patient: { heightCm: 170, sex: 'male', ageYears: 66 },
           previous: [
             {
-              label: 'before RR change',
+              label: 'first gas',
               gas: { ph: 7.22, pco2: 61, po2: 88, hco3: 24.3 },
               oxygen: { fio2: 0.5, peep: 8 },
               ventilator: { vt: 450, rr: 14 },
@@ -306,7 +305,7 @@ describe.skipIf(!run)('pasting results and following up, in Chromium', () => {
         })
       ).text,
     );
-    expect(text).toContain('Since the previous gas (before RR change): pH 7.22 to 7.31');
+    expect(text).toContain('Since the previous gas (first gas): pH 7.22 to 7.31');
     // the chart-ready note carries the change made; the prediction (61 x 14 / 18 = 47 mmHg, alveolar ventilation
     // equation, West) is in the full reasoning
     expect(text).toContain('PaCO2 61 to 49 mmHg after RR 14 to 18/min');
@@ -315,7 +314,7 @@ describe.skipIf(!run)('pasting results and following up, in Chromium', () => {
     expect(await map.locator('.gl-gas-step').count()).toBe(1);
     await page.getByText('What the chart shows').click();
     expect(await map.locator('.chart-lines').textContent()).toContain(
-      'Gas 1 of 2, before RR change: pH 7.22 ([H+] 60 nmol/L), PaCO2 61 mmHg',
+      'Gas 1 of 2, first gas: pH 7.22 ([H+] 60 nmol/L), PaCO2 61 mmHg',
     );
     await s.axe('draft with trend');
     await s.shot('draft-trend');

@@ -175,7 +175,8 @@ export function formFields(html: string, action: string): Record<string, string>
 /** Answer the steps left after a confirm (timing acute, not ventilated, the rest as prefilled) until the draft shows. */
 export async function toDraft(agent: Agent, origin: string, html: string): Promise<string> {
   let page = html;
-  for (let i = 0; i < 8 && !page.includes('action="/preview"'); i++) {
+  // the draft shows from the first gas on: walk on while a question is open
+  for (let i = 0; i < 8 && page.includes('<form class="step-form"'); i++) {
     const f = formFields(page, '/step');
     const step = f.step!;
     const answers: Record<string, string> =

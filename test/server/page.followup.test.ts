@@ -17,7 +17,12 @@ const svgOf = (html: string) => html.match(/<svg[\s\S]*?<\/svg>/)?.[0] ?? '';
 const post = poster(app);
 const answer = (html: string, step: string, fields: Fields) =>
   post('/step', { ...stateOf(html), step, action: 'next', ...fields });
-const followUp = (html: string, when: string) => post('/followup', { ...stateOf(html), when });
+/**
+ * A follow-up from a draft: `earlier` is the time or label the current gas was given (it keeps it as the earlier
+ * gas; without one it is the "first gas"), `when` the time of the new gas.
+ */
+const followUp = (html: string, earlier: string, when = '') =>
+  post('/followup', { ...stateOf(html), ...(earlier ? { taken: earlier } : {}), when });
 
 // An invented 66-year-old ventilated for pneumonia with an acute respiratory acidosis.
 async function ventilatedDraft(): Promise<string> {
@@ -74,13 +79,17 @@ describe('the draft offers a follow-up gas', () => {
       /<form class="followup-form" method="post" action="\/followup" hx-post="\/followup"/,
     );
     expect(html).toContain(
-      '<label class="field-label" for="followup-when">When this gas was taken, or a label <span class="unit">optional</span></label>',
+      '<label class="field-label" for="followup-when">New gas taken at <span class="unit">time or label</span></label>',
     );
-    expect(html).toContain('<button type="submit" class="button">Add a follow-up gas</button>');
+    expect(html).toContain('<button type="submit" class="button">Add the later gas</button>');
   });
 
   it('moves the gas with its FiO2, PEEP, VT and RR into the earlier gases and opens the gas step, keeping the rest', async () => {
-    const { status, html } = await followUp(await ventilatedDraft(), '2026-03-02T04:10');
+    const { status, html } = await followUp(
+      await ventilatedDraft(),
+      '2026-03-02T04:10',
+      '2026-03-02T06:40',
+    );
     expect(status).toBe(200);
     expect(caseOf(html)).toEqual({
       sample: 'arterial',
@@ -98,6 +107,8 @@ describe('the draft offers a follow-up gas', () => {
       ],
     });
     expect(stateOf(html).done).toBe('sample chemistry timing patient');
+    // the time typed belongs to the new gas
+    expect(html).toContain('<input type="hidden" name="taken" value="2026-03-02T06:40">');
     expect(openId(html)).toBe('gas');
     const step = openStep(html);
     for (const name of ['gas.ph', 'gas.pco2', 'gas.po2', 'gas.hco3'])
@@ -107,13 +118,20 @@ describe('the draft offers a follow-up gas', () => {
     );
     // the earlier gas heads the conversation, with the way back
     expect(html).toMatch(
-      /<li class="entry entry--earlier" id="step-earlier-1">[\s\S]*?Earlier gas<span class="reply-when"> · 2026-03-02 04:10<\/span>[\s\S]*?<li>pH 7.22<\/li><li>PaCO2 61 mmHg<\/li><li>PaO2 88 mmHg<\/li><li>HCO3 24.3 mmol\/L<\/li><li>FiO2 0.5<\/li><li>PEEP 8 cmH2O<\/li><li>VT 450 mL<\/li><li>RR 14\/min<\/li>/,
+      /<li class="entry entry--earlier" id="step-earlier-1">[\s\S]*?Earlier gas<span class="bubble-when"> · 2026-03-02 04:10<\/span>[\s\S]*?<span class="value">pH 7.22<\/span><span class="value">PaCO2 61 mmHg<\/span><span class="value">PaO2 88 mmHg<\/span><span class="value">HCO3 24.3 mmol\/L<\/span><span class="value">FiO2 0.5<\/span><span class="value">PEEP 8 cmH2O<\/span><span class="value">VT 450 mL<\/span><span class="value">RR 14\/min<\/span>/,
     );
     expect(html).toContain('name="open" value="cancel-followup"');
-    expect(html).not.toContain('draft-title');
+    expect(html).not.toContain('id="draft-title"');
   });
 
-  it('words that are not a date and time become the label', async () => {
+  it('a gas given no time of its own is the "first gas" once a later gas follows', async () => {
+    const { html } = await followUp(await ventilatedDraft(), '', '06:40');
+    const previous = caseOf(html).previous as Record<string, unknown>[];
+    expect(previous[0]!.label).toBe('first gas');
+    expect(html).toContain('<input type="hidden" name="taken" value="06:40">');
+  });
+
+  it('an earlier gas whose time was given in words keeps them as its label', async () => {
     const { html } = await followUp(await ventilatedDraft(), '  before RR change ');
     const previous = caseOf(html).previous as Record<string, unknown>[];
     expect(previous[0]!.label).toBe('before RR change');
@@ -182,8 +200,12 @@ describe('the draft offers a follow-up gas', () => {
     expect(html).toMatch(
       /<li>Gas 1 of 2, before RR change: pH 7\.22 \(\[H\+\] 60 nmol\/L\), PaCO2 61 mmHg, HCO3 24\.3 mmol\/L/,
     );
+    // what changed since the earlier gas, beside the reading
+    expect(html).toContain(
+      'Since the earlier gas (before RR change): pH 7.22 to 7.31; PaCO2 61 to 49 mmHg; PaO2 88 to 95 mmHg; HCO3 24.3 to 24.1 mmol/L. Changed: RR 14 to 18/min.',
+    );
     // a second follow-up is offered, up to the schema's limit
-    expect(html).toContain('Add a follow-up gas');
+    expect(html).toContain('Add the later gas');
   });
 
   it('cancelling before the new gas is entered puts the gas back and shows the draft again', async () => {
@@ -212,7 +234,7 @@ describe('the draft offers a follow-up gas', () => {
 
   it('a label too long is refused at its field; the case is unchanged', async () => {
     const draft = await ventilatedDraft();
-    const res = await followUp(draft, 'x'.repeat(81));
+    const res = await followUp(draft, '', 'x'.repeat(81));
     expect(res.status).toBe(422);
     expect(res.html).toMatch(
       /<p class="error" id="followup-when-error"><span class="visually-hidden">Error: <\/span>Keep the time or label to 80 characters or fewer \(it has 81\)\.<\/p>/,

@@ -15,12 +15,25 @@ export function hidden(html: string, name: string): string {
   return unescapeHtml(m[1]!);
 }
 
-export type State = { case: string; done: string; format: string };
-export const stateOf = (html: string): State => ({
-  case: hidden(html, 'case'),
-  done: hidden(html, 'done'),
-  format: hidden(html, 'format'),
-});
+export type State = {
+  case: string;
+  done: string;
+  format: string;
+  finished?: string;
+  taken?: string;
+};
+/** The state a form carries: always the case, the answered steps and the format; Finish and the gas's time when set. */
+export const stateOf = (html: string): State => {
+  const state: State = {
+    case: hidden(html, 'case'),
+    done: hidden(html, 'done'),
+    format: hidden(html, 'format'),
+  };
+  for (const name of ['finished', 'taken'] as const)
+    if (html.includes(`<input type="hidden" name="${name}" value="`))
+      state[name] = hidden(html, name);
+  return state;
+};
 export const caseOf = (html: string) => JSON.parse(hidden(html, 'case')) as Record<string, unknown>;
 export const openId = (html: string) =>
   html.match(/<li class="entry entry--open" id="step-([a-z]+)">/)?.[1] ?? null;

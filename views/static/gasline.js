@@ -14,13 +14,15 @@
     }, 50);
   }
 
-  // Copy a text area to the clipboard; fall back to selecting it when the clipboard is refused.
+  // Copy a text area (or the line) to the clipboard; fall back to selecting it when the clipboard is refused.
   function copyFrom(button) {
     var area = document.getElementById(button.getAttribute('data-copy'));
     if (!area) return;
     var label = button.getAttribute('data-label') || button.textContent;
     button.setAttribute('data-label', label);
-    var what = area.id === 'handover-text' ? 'Handover' : 'Note';
+    var what = button.getAttribute('data-what') || 'Note';
+    var isField = area instanceof HTMLTextAreaElement;
+    var text = isField ? area.value : area.textContent.trim();
     function done(ok) {
       button.textContent = ok ? 'Copied' : 'Selected: press Ctrl+C';
       button.classList.toggle('is-copied', ok);
@@ -33,8 +35,16 @@
       }, 2500);
     }
     function fallback() {
-      area.focus();
-      area.select();
+      if (!isField) {
+        const range = document.createRange();
+        range.selectNodeContents(area);
+        const selection = window.getSelection();
+        selection.removeAllRanges();
+        selection.addRange(range);
+      } else {
+        area.focus();
+        area.select();
+      }
       var ok = false;
       try {
         ok = document.execCommand('copy');
@@ -44,7 +54,7 @@
       done(ok);
     }
     if (navigator.clipboard && window.isSecureContext) {
-      navigator.clipboard.writeText(area.value).then(() => {
+      navigator.clipboard.writeText(text).then(() => {
         done(true);
       }, fallback);
     } else {
@@ -74,6 +84,17 @@
     if (!isChoice || !el.form?.classList.contains('step-form')) return;
     event.preventDefault();
     el.form.requestSubmit();
+  });
+
+  // Escape skips the open step (its Skip button), wherever the focus is in its form.
+  document.addEventListener('keydown', (event) => {
+    if (event.key !== 'Escape' || event.isComposing) return;
+    var el = event.target;
+    var form = el instanceof Element ? el.closest('.step-form') : null;
+    var skip = form?.querySelector('button[value="skip"]');
+    if (!(skip instanceof HTMLButtonElement)) return;
+    event.preventDefault();
+    form.requestSubmit(skip);
   });
 
   // Ctrl+Enter (Cmd+Enter) in the paste box reads the text; Enter alone is a new line there.
@@ -107,6 +128,94 @@
       if (area) pre.textContent = area.value;
     });
   });
+
+  // The clinician's own edits of the note and handover are never lost silently: before an answer is sent they
+  // are taken aside, and if the new draft differs they stay in the box, with the new draft one press away.
+  var edits = null;
+  function editedBoxes() {
+    var out = {};
+    ['note-text', 'handover-text'].forEach((id) => {
+      var box = document.getElementById(id);
+      if (box && box.value !== box.defaultValue) out[id] = box.value;
+    });
+    return Object.keys(out).length ? out : null;
+  }
+  document.addEventListener('htmx:before:request', () => {
+    edits = editedBoxes() || edits;
+  });
+  function offerBoth(kept) {
+    var holder = document.getElementById('kept');
+    if (!holder) return;
+    var drafts = {};
+    Object.keys(kept).forEach((id) => {
+      var box = document.getElementById(id);
+      if (!box || box.defaultValue === kept[id]) return;
+      drafts[id] = box.defaultValue;
+      box.value = kept[id];
+    });
+    var names = Object.keys(drafts).map((id) => (id === 'note-text' ? 'note' : 'handover'));
+    if (!names.length) return;
+    holder.hidden = false;
+    holder.textContent = '';
+    var p = document.createElement('p');
+    p.textContent = `Your edits of the ${names.join(' and ')} are kept. Your answer changed the draft: keep your edits, or use the new draft.`;
+    var keep = document.createElement('button');
+    keep.type = 'button';
+    keep.className = 'button button--primary';
+    keep.textContent = 'Keep my edits';
+    var use = document.createElement('button');
+    use.type = 'button';
+    use.className = 'button';
+    use.textContent = 'Use the new draft';
+    keep.addEventListener('click', () => {
+      holder.hidden = true;
+      announce('Your edits are kept.');
+    });
+    use.addEventListener('click', () => {
+      Object.keys(drafts).forEach((id) => {
+        document.getElementById(id).value = drafts[id];
+      });
+      edits = null;
+      holder.hidden = true;
+      announce('The new draft is in the box.');
+    });
+    var row = document.createElement('div');
+    row.className = 'doubt-actions';
+    row.append(keep, use);
+    holder.append(p, row);
+    announce(p.textContent);
+  }
+
+  // When the draft was written, in the clinician's own time; a later gas is taken now unless told otherwise.
+  function localTime(date) {
+    var pad = (n) => String(n).padStart(2, '0');
+    return `${date.getFullYear()}-${pad(date.getMonth() + 1)}-${pad(date.getDate())} ${pad(date.getHours())}:${pad(date.getMinutes())}`;
+  }
+  function settle() {
+    document.querySelectorAll('time.drafted').forEach((t) => {
+      var when = new Date(t.getAttribute('datetime'));
+      if (!Number.isNaN(when.getTime())) t.textContent = localTime(when);
+    });
+    document.querySelectorAll('input[data-now-if-empty]').forEach((input) => {
+      if (input.value === '') input.value = localTime(new Date());
+    });
+    if (edits) offerBoth(edits);
+    // the assistant's reply stays in sight above the question it leads to, while the question keeps the focus
+    window.setTimeout(() => {
+      var reply = document.getElementById('step-reply');
+      var active = document.activeElement;
+      if (!reply || !active?.closest('.entry--open')) return;
+      reply.scrollIntoView({ block: 'start' });
+      var bar = document.getElementById('draft-head');
+      var room =
+        window.innerHeight -
+        (bar && getComputedStyle(bar).position === 'fixed' ? bar.offsetHeight : 0);
+      if (active.getBoundingClientRect().bottom > room) active.scrollIntoView({ block: 'nearest' });
+    }, 0);
+  }
+  document.addEventListener('htmx:after:settle', settle);
+  if (document.readyState === 'loading') document.addEventListener('DOMContentLoaded', settle);
+  else settle();
 
   // A request that never reached the server leaves the page as it was: say so.
   document.addEventListener('htmx:error', () => {
