@@ -67,8 +67,10 @@ describe('the follow-up box', () => {
     const moved = await post('/followup', { ...stateOf(first), when: typed });
     expect(moved.status).toBe(200);
     expect(moved.html).not.toMatch(ANY_CONTROL);
-    expect(JSON.parse(hidden(moved.html, 'case')).previous[0].label).toBe('after PaCO2 48 to 42');
-    // the follow-up gas: the draft now holds the earlier gas, its label, the trend and the map
+    // the time or label typed belongs to the new gas; the earlier one keeps its own ("first gas" when it had none)
+    expect(JSON.parse(hidden(moved.html, 'case')).previous[0].label).toBe('first gas');
+    expect(hidden(moved.html, 'taken')).toBe('after PaCO2 48 to 42');
+    // the follow-up gas: the page shows the new gas's label, the note the trend, and the chart both gases
     const next = await post('/step', {
       ...stateOf(moved.html),
       step: 'gas',
@@ -82,7 +84,7 @@ describe('the follow-up box', () => {
     const done = await skipToDraft(next.html);
     expect(done).toContain('after PaCO2 48 to 42');
     expect(done).toMatch(/<svg/);
-    expect(textareaOf(done, 'note-text')).toContain('after PaCO2 48 to 42');
+    expect(textareaOf(done, 'note-text')).toContain('Since the previous gas (first gas)');
     expect(textareaOf(done, 'handover-text')).toContain('PaCO2');
     expect(done).not.toMatch(ANY_CONTROL);
   });

@@ -78,9 +78,13 @@ describe('a cluster whose worker dies', () => {
     await load.answered(before + 200);
     const tally = await load.finish();
     // each connection has one request in flight at most: the killed worker held at most that many
-    expect(tally.lost + tally.unaccepted, JSON.stringify(tally)).toBeLessThanOrEqual(CONNECTIONS);
+    // (a request that timed out on a machine busy with other work counts against the same bound)
+    expect(
+      tally.lost + tally.unaccepted + tally.timedOut,
+      JSON.stringify(tally),
+    ).toBeLessThanOrEqual(CONNECTIONS);
     expect(tally.refused).toBe(0);
-    expect(tally.answered + tally.lost + tally.unaccepted).toBe(tally.sent);
+    expect(tally.answered + tally.lost + tally.unaccepted + tally.timedOut).toBe(tally.sent);
     expect(r.err()).toMatch(/worker \d+ exited \(SIGKILL\); starting another in \d+ ms/);
     console.log(`SIGKILL of a worker under load: ${JSON.stringify(tally)}`);
     r.child.kill('SIGTERM');

@@ -84,10 +84,10 @@ describe.skipIf(!run)('the H+/CO2 chart in Chromium', () => {
       const svg = wide.page.locator('#chart svg');
       await expect.poll(() => svg.isVisible()).toBe(true);
       expect(await wide.page.locator('.chart-fold > summary').isVisible()).toBe(false);
-      // beside the draft: the chart's left edge is right of the draft's
+      // in the draft's column, beside the conversation: the chart's left edge is right of the conversation's
       const chartBox = await wide.page.locator('#chart').boundingBox();
-      const draftBox = await wide.page.locator('.draft').first().boundingBox();
-      expect(chartBox && draftBox && chartBox.x > draftBox.x + draftBox.width).toBe(true);
+      const talkBox = await wide.page.locator('.talk').first().boundingBox();
+      expect(chartBox && talkBox && chartBox.x > talkBox.x + talkBox.width - 1).toBe(true);
       expect(await smallestTextPx(wide.page)).toBeGreaterThanOrEqual(11);
       // open to assistive technology too: an image named by its title, and the words' summary
       const tree = await wide.page.locator('#chart').ariaSnapshot();
