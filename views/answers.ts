@@ -49,8 +49,10 @@ export function applyStep(
       continue;
     }
     if (field.pseudo) {
-      // not a path of the case: only an offered answer can be written
-      if (raw !== undefined && field.options.some((o) => o.value === raw))
+      // not a path of the case: only an offered answer can be written (a question not sent, unless required, is
+      // left as the case has it)
+      if (raw === undefined) continue;
+      if (field.options.some((o) => o.value === raw))
         field.pseudo.write(next, raw);
       else errors.push({ path: field.name, message: required });
       continue;

@@ -4,6 +4,7 @@
 import { FIELDS, type FieldError, type FieldSpec, type Findings } from '../calc/index.ts';
 import { earlierGases, getPath, setPath, type FormValues, type Json } from './paths.ts';
 import { keptOf } from './unitDoubt.ts';
+import type { ChoiceField } from './fields.ts';
 import {
   OXYGENATION_PATHS,
   gasLabel,
@@ -243,6 +244,45 @@ const ventilator: StepSpec = {
   },
 };
 
+// Known conditions change targets and the plan (the SpO2 target, air trapping, the usual PaCO2, the ketoacidosis
+// pattern): the page asks for the one that matters most; the API takes a list, which the page keeps as it is when
+// the answer is one of it (a pasted or recorded case may hold several).
+const CONDITION_OPTIONS: [string, string][] = [
+  ['', 'None known'],
+  ['copd', 'COPD'],
+  ['chronic_hypercapnia', 'Chronic hypercapnia (a CO2 retainer)'],
+  ['obesity_hypoventilation', 'Obesity hypoventilation'],
+  ['neuromuscular', 'Neuromuscular or chest wall disease'],
+  ['asthma', 'Asthma'],
+  ['diabetes', 'Diabetes'],
+  ['chronic_kidney_disease', 'Chronic kidney disease'],
+  ['heart_failure', 'Heart failure'],
+];
+const conditionsOf = (answers: Json): string[] => {
+  const list = getPath(answers, 'context.conditions');
+  return Array.isArray(list) ? list.filter((x): x is string => typeof x === 'string') : [];
+};
+const conditions: ChoiceField = {
+  kind: 'choice',
+  name: 'context.conditions',
+  label: 'Known condition that changes the targets',
+  options: CONDITION_OPTIONS.map(([value, label]) => ({
+    value,
+    label,
+    json: value || undefined,
+    said: value ? `Known ${label}` : 'No known condition',
+  })),
+  pseudo: {
+    read: (answers) => conditionsOf(answers)[0] ?? '',
+    shown: (answers) => conditionsOf(answers)[0] ?? '',
+    write: (answers, value) => {
+      if (!value) setPath(answers, 'context.conditions', undefined);
+      else if (!conditionsOf(answers).includes(value))
+        setPath(answers, 'context.conditions', [value]);
+    },
+  },
+};
+
 const male = (answers: Json) => getPath(answers, 'patient.sex') === 'male';
 const notPregnant = (answers: Json) =>
   male(answers) || getPath(answers, 'patient.pregnant') === false;
@@ -254,8 +294,8 @@ const patient: StepSpec = {
   skippable: true,
   why: (ctx) =>
     arterial(ctx)
-      ? 'age sets the expected A-a gradient; pregnancy changes what is normal.'
-      : 'an age under 16 and pregnancy change the rules the reading uses.',
+      ? 'age sets the expected A-a gradient; pregnancy and known conditions change what is normal and the targets.'
+      : 'an age under 16, pregnancy and known conditions change the rules the reading uses.',
   after: [
     {
       kind: 'choice',
@@ -267,6 +307,7 @@ const patient: StepSpec = {
         { value: '', label: 'Not known or not applicable', json: undefined },
       ],
     },
+    conditions,
   ],
   optionalLegend: 'If pregnant',
   // weeks of pregnancy change the reading only in a pregnancy: not asked for a man or a patient said not pregnant

@@ -111,7 +111,7 @@ describe('the steps derive from the table of fields', () => {
     const numbers = [...owned].filter((p) =>
       /^(gas|chemistry|context|oxygen|ventilator|patient)\./.test(p),
     );
-    const choices = ['context.timing', 'patient.sex', 'patient.pregnant'];
+    const choices = ['context.timing', 'context.conditions', 'patient.sex', 'patient.pregnant'];
     expect(numbers.filter((p) => !choices.includes(p)).sort()).toEqual(
       ROWS.map((f) => f.path).sort(),
     );
