@@ -52,8 +52,7 @@ export function applyStep(
       // not a path of the case: only an offered answer can be written (a question not sent, unless required, is
       // left as the case has it)
       if (raw === undefined) continue;
-      if (field.options.some((o) => o.value === raw))
-        field.pseudo.write(next, raw);
+      if (field.options.some((o) => o.value === raw)) field.pseudo.write(next, raw);
       else errors.push({ path: field.name, message: required });
       continue;
     }
