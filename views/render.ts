@@ -291,8 +291,15 @@ function earlierLog(ctx: StepContext) {
       if (typeof value !== 'number') continue;
       const unit = enteredUnit(f, ctx.units);
       // a rate joins its number (14/min), any other unit stands apart (8 cmH2O)
+      // a value whose unit never changes is written with the table's decimals (pH 7.30), as the note writes it
+      const fixedUnit =
+        f.path.startsWith('gas.') &&
+        !f.quantity &&
+        !f.percent &&
+        (f.unit === '' || f.unit === 'mmol/L');
+      const shown = fixedUnit ? value.toFixed(f.decimals) : String(value);
       phrases.push(
-        `${caseLabel(f, ctx.sample)} ${value}${unit && !unit.startsWith('/') ? ' ' : ''}${unit}`,
+        `${caseLabel(f, ctx.sample)} ${shown}${unit && !unit.startsWith('/') ? ' ' : ''}${unit}`,
       );
     }
     const when = [typeof g.takenAt === 'string' ? g.takenAt.replace('T', ' ') : null, g.label]

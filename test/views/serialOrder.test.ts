@@ -23,9 +23,9 @@ function pageOf(previous: unknown[]) {
   const state = { answers: { ...answers, previous }, done: [...STEP_IDS], format: 'text' as const };
   const view = flowView(state, { renderer: createNoteRenderer() });
   if (!view.draft?.chart) throw new Error('no draft with a chart');
-  const log = (view.items as { type: string; title: string; when: string | null }[]).filter(
-    (i) => i.type === 'earlier',
-  );
+  const log = (
+    view.items as { type: string; title: string; when: string | null; phrases: string[] }[]
+  ).filter((i) => i.type === 'earlier');
   return { note: view.draft.text, chart: view.draft.chart, log };
 }
 
@@ -52,6 +52,9 @@ describe('serial gases in one order', () => {
         ['Earlier gas 1 of 2', '2026-03-02 03:00'],
         ['Earlier gas 2 of 2', '2026-03-02 04:10'],
       ]);
+      // written as the note writes them: pH with two decimals, HCO3 with one (24 typed reads 24.0)
+      expect(log[1]?.phrases).toContain('HCO3 24.0 mmol/L');
+      expect(log[0]?.phrases).toContain('pH 7.18');
     });
   }
 });
