@@ -1,16 +1,11 @@
 // The chart-ready note (note.text) and the ISBAR handover: short enough to sign as written, with the line, a few
 // bullets of assessment and plan, the cautions specific to the case, and one closing line of general caution.
 import { describe, expect, it } from 'vitest';
-import { interpret, type Findings } from '../../calc/index.ts';
+import { interpret } from '../../calc/index.ts';
 import { createNoteRenderer } from '../../templates/index.ts';
 import * as C from './cases.ts';
 
 const renderer = createNoteRenderer();
-const read = (c: unknown): Findings => {
-  const f = interpret(c);
-  if (!f.ok) throw new Error(JSON.stringify(f.errors));
-  return f;
-};
 const bullets = (text: string) => text.split('\n').filter((l) => l.startsWith('- '));
 const CLOSING = /^Decision support for the licensed clinician who signs this note/m;
 
@@ -38,7 +33,7 @@ describe('every invented case', () => {
 // Invented: a 58-year-old woman, 165 cm, ventilated for pneumonia; RR raised from 18 to 24 and FiO2 lowered
 // from 0.5 to 0.4 after a gas at 03:10; the team's target is pH 7.30.
 const followUp = (ph: number, pco2: number, hco3: number) =>
-  read({
+  C.read({
     gas: { ph, pco2, hco3, po2: 88 },
     patient: { ageYears: 58, sex: 'female', heightCm: 165 },
     oxygen: { fio2: 0.4, peep: 8 },
@@ -105,7 +100,7 @@ describe('the ISBAR handover', () => {
   });
 
   it('names known conditions and the usual values in the background', () => {
-    const f = read({
+    const f = C.read({
       gas: { ph: 7.29, pco2: 72, hco3: 33.5 },
       context: { conditions: ['copd'], baseline: { pco2: 55, hco3: 32 } },
     });

@@ -18,6 +18,15 @@ export const CAUTION_PHRASES = [
   /senior review/i,
 ];
 
+/** The body of one plain-text section of a note, up to the next upper-case heading ('' when it is absent). */
+export function section(text: string, heading: string): string {
+  const start = text.indexOf(`\n${heading}\n`);
+  if (start < 0) return '';
+  const rest = text.slice(start + heading.length + 2);
+  const next = rest.search(/\n[A-Z][A-Z0-9 ()/,-]+\n/);
+  return next < 0 ? rest : rest.slice(0, next);
+}
+
 /** Heading level of a line (1 = top), or 0 when it is not a heading. */
 function headingLevel(line: string, markdown: boolean): number {
   if (markdown) return /^(#{1,6}) \S/.exec(line)?.[1]?.length ?? 0;

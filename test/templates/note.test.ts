@@ -4,19 +4,11 @@ import { describe, expect, it } from 'vitest';
 import { createNoteRenderer, type Note } from '../../templates/index.ts';
 import * as C from './cases.ts';
 import { kpaText, read, ucum } from './cases.ts';
-import { CAUTION_PHRASES, noteProblems } from './helpers.ts';
+import { CAUTION_PHRASES, noteProblems, section } from './helpers.ts';
 
 const renderer = createNoteRenderer();
 const note = (c: unknown, format: 'text' | 'markdown' = 'text'): Note =>
   renderer.render(read(c), { format });
-const section = (text: string, heading: string): string => {
-  // the body of one plain-text section, up to the next upper-case heading
-  const start = text.indexOf(`\n${heading}\n`);
-  if (start < 0) return '';
-  const rest = text.slice(start + heading.length + 2);
-  const next = rest.search(/\n[A-Z][A-Z0-9 ()/,-]+\n/);
-  return next < 0 ? rest : rest.slice(0, next);
-};
 const round = (x: number, d = 0) => Math.round(x * 10 ** d) / 10 ** d;
 // [H+] nmol/L = 10^(9 - pH) (definition of pH)
 const hPlus = (ph: number) => 10 ** (9 - ph);

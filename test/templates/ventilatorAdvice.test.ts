@@ -5,18 +5,11 @@ import { describe, expect, it } from 'vitest';
 import { createNoteRenderer, type Note } from '../../templates/index.ts';
 import { asthma, ards, copd, embolism, septic, stiffLungs } from '../calc/ventilatorCases.ts';
 import { read } from './cases.ts';
-import { noteProblems } from './helpers.ts';
+import { noteProblems, section } from './helpers.ts';
 
 const renderer = createNoteRenderer();
 const note = (c: unknown, format: 'text' | 'markdown' = 'text'): Note =>
   renderer.render(read(c), { format });
-const section = (text: string, heading: string): string => {
-  const start = text.indexOf(`\n${heading}\n`);
-  if (start < 0) return '';
-  const rest = text.slice(start + heading.length + 2);
-  const next = rest.search(/\n[A-Z][A-Z0-9 ()/,-]+\n/);
-  return next < 0 ? rest : rest.slice(0, next);
-};
 const plan = (n: Note) => section(n.full, 'PLAN (SUGGESTIONS)');
 const oxygenation = (n: Note) => section(n.full, 'OXYGENATION');
 const ventilation = (n: Note) => section(n.full, 'VENTILATION');
