@@ -7,7 +7,7 @@ import { createApp } from '../../server/app.ts';
 import { withoutInvisibleDeep } from '../../server/intake/index.ts';
 import { readJson } from '../../server/launch/http.ts';
 import { PRINTOUT } from './fixtures.ts';
-import { hidden, openId, poster, stateOf, textareaOf } from './pageHtml.ts';
+import { hidden, openId, poster, stateOf, textareaOf, typedGas } from './pageHtml.ts';
 
 // the review's list (U+202A-202E, U+2066-2069, U+200E, U+200F, U+061C), each written out
 const CONTROLS = [
@@ -45,13 +45,8 @@ async function skipToDraft(html: string): Promise<string> {
 }
 
 async function draft(): Promise<string> {
-  let html = await (await app.request('/')).text();
-  const answer = async (step: string, fields: Record<string, string>) =>
-    (await post('/step', { ...stateOf(html), step, action: 'next', ...fields })).html;
-  html = await answer('sample', { sample: 'arterial' });
   // an invented 58-year-old with an acute respiratory acidosis
-  html = await answer('gas', {
-    'units.pressure': 'mmHg',
+  const html = await typedGas(app, {
     'gas.ph': '7.29',
     'gas.pco2': '48',
     'gas.po2': '80',

@@ -2,19 +2,14 @@
 // carries it as context.conditions, and the reading uses it. Every patient is invented.
 import { describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app.ts';
-import { caseOf, openId, poster, stateOf, textareaOf } from './pageHtml.ts';
+import { caseOf, openId, poster, stateOf, textareaOf, typedGas } from './pageHtml.ts';
 
 const app = createApp();
 const post = poster(app);
 
 /** An invented 67-year-old on 40% oxygen with SpO2 97%, answered step by step up to the patient step. */
 async function upToPatient(): Promise<string> {
-  let html = await (await app.request('/')).text();
-  const answer = async (step: string, fields: Record<string, string>) =>
-    (await post('/step', { ...stateOf(html), step, action: 'next', ...fields })).html;
-  html = await answer('sample', { sample: 'arterial' });
-  html = await answer('gas', {
-    'units.pressure': 'mmHg',
+  let html = await typedGas(app, {
     'gas.ph': '7.34',
     'gas.pco2': '58',
     'gas.po2': '92',

@@ -63,3 +63,15 @@ export const poster =
     });
     return { status: res.status, html: await res.text(), headers: res.headers };
   };
+
+/** The first screen, then an arterial sample and a gas typed in mmHg (the gas fields as the form names them). */
+export async function typedGas(app: Pick<Hono, 'request'>, gas: Fields): Promise<string> {
+  const post = poster(app);
+  let html = await (await app.request('/')).text();
+  for (const [step, fields] of [
+    ['sample', { sample: 'arterial' }],
+    ['gas', { 'units.pressure': 'mmHg', ...gas }],
+  ] as const)
+    html = (await post('/step', { ...stateOf(html), step, action: 'next', ...fields })).html;
+  return html;
+}
