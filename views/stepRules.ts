@@ -270,7 +270,10 @@ const conditions: ChoiceField = {
     value,
     label,
     json: value || undefined,
-    said: value ? `Known ${label}` : 'No known condition',
+    // read back in a sentence: "Known COPD", "Known asthma"
+    said: value
+      ? `Known ${/^[A-Z]{2}/.test(label) ? label : label.charAt(0).toLowerCase() + label.slice(1)}`
+      : 'No known condition',
   })),
   pseudo: {
     read: (answers) => conditionsOf(answers)[0] ?? '',
