@@ -1,7 +1,7 @@
 // The server under test: started as package.json's start script starts it, and read from outside through /proc
 // (its CPU time and memory), so that the benchmark's own work is never counted.
 import { execFileSync, execSync, spawn, type ChildProcess } from 'node:child_process';
-import { readFileSync } from 'node:fs';
+import { readFileSync, readdirSync, readlinkSync } from 'node:fs';
 import { createServer } from 'node:net';
 import { fileURLToPath } from 'node:url';
 
@@ -123,4 +123,23 @@ export function cpuMs(pid: number): number {
 export function rssMb(pid: number): number {
   const status = readFileSync(`/proc/${pid}/status`, 'utf8');
   return Number(/VmRSS:\s+(\d+)/.exec(status)?.[1] ?? 0) / 1024;
+}
+
+/** Established TCP connections a process holds, from /proc (Linux): its socket descriptors' inodes matched with
+ *  the kernel's table of TCP sockets (IPv4), state 01 being ESTABLISHED. */
+export function connectionsHeldBy(pid: number): number {
+  const inodes = new Set<string>();
+  for (const fd of readdirSync(`/proc/${pid}/fd`)) {
+    try {
+      const inode = /^socket:\[(\d+)\]$/.exec(readlinkSync(`/proc/${pid}/fd/${fd}`))?.[1];
+      if (inode) inodes.add(inode);
+    } catch {
+      // a descriptor closed between the listing and the read
+    }
+  }
+  return readFileSync(`/proc/${pid}/net/tcp`, 'utf8')
+    .split('\n')
+    .slice(1)
+    .map((row) => row.trim().split(/\s+/))
+    .filter((f) => f[3] === '01' && inodes.has(f[9]!)).length;
 }

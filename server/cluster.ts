@@ -3,6 +3,13 @@
 // a worker that dies is replaced after a back-off that doubles with each quick failure, and after
 // RESTART_LIMIT quick failures in a row the primary stops everything and exits 1, so that a supervisor sees it.
 // SIGTERM or SIGINT stops every worker gracefully (each finishes its requests) and the primary exits 0.
+//
+// Each worker accepts its own connections from the one listening socket (cluster.SCHED_NONE). Node's default on
+// Linux is round-robin: the primary accepts every connection and hands it to a worker over IPC, one at a time per
+// worker, each handed connection waiting for the worker's next turn of its event loop. Under load a worker's turns
+// are long, so connections queue in the primary: with 1,000 connections, hundreds waited there more than 10 s
+// after a worker was killed (their clients reconnect at once), and some at a cold start (bench/README.md).
+// NODE_CLUSTER_SCHED_POLICY=rr brings round-robin back.
 import cluster, { type Worker } from 'node:cluster';
 import { availableParallelism } from 'node:os';
 import { readConfig } from './config.ts';
@@ -23,6 +30,8 @@ if (!Number.isInteger(requested) || requested < 1 || requested > 64) {
 }
 
 if (cluster.isPrimary) {
+  if (process.env.NODE_CLUSTER_SCHED_POLICY === undefined)
+    cluster.schedulingPolicy = cluster.SCHED_NONE;
   const checked = readConfig(process.env, { severalProcesses: true });
   if (!checked.ok) {
     console.error(checked.error);

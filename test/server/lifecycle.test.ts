@@ -5,12 +5,21 @@
 // answers or an exit code, never a time. (1,000 connections are in the benchmark: npm run bench.)
 import { createServer, Socket } from 'node:net';
 import { execFileSync } from 'node:child_process';
-import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import {
+  mkdtempSync,
+  readFileSync,
+  readdirSync,
+  readlinkSync,
+  rmSync,
+  writeFileSync,
+} from 'node:fs';
+import { request } from 'node:http';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it, vi } from 'vitest';
 import { START_MS, freePort, listening, start } from './processHarness.ts';
 import { startLoad } from '../../bench/load.ts';
+import { connectionsHeldBy } from '../../bench/server.ts';
 
 vi.setConfig({ testTimeout: 4 * START_MS });
 const CONNECTIONS = 20;
@@ -111,6 +120,49 @@ describe('a cluster whose worker dies', () => {
     } finally {
       holder.close();
     }
+  });
+});
+
+describe('a cluster: connections go straight to the workers', () => {
+  it('under a burst of new connections the primary holds none of them', async () => {
+    const r = await start('server/cluster.ts', { WORKERS: '2', REQUEST_LOG: 'off' }, 2);
+    const primary = r.child.pid!;
+    let most = 0;
+    let samples = 0;
+    const sampler = setInterval(() => {
+      most = Math.max(most, connectionsHeldBy(primary));
+      samples++;
+    }, 2);
+    const body = JSON.stringify({ gas: { ph: 7.31, pco2: 48, po2: 80, hco3: 23.5 } });
+    // three bursts of 300 new connections at once, one request each (no keep-alive agent): every one passes the
+    // listening socket
+    const burst = () =>
+      Promise.all(
+        Array.from(
+          { length: 300 },
+          () =>
+            new Promise<number>((resolve) => {
+              const req = request(
+                `${r.base}/api/interpret`,
+                { method: 'POST', agent: false, headers: { 'content-type': 'application/json' } },
+                (res) => {
+                  res.resume();
+                  res.on('end', () => resolve(res.statusCode ?? 0));
+                },
+              );
+              req.on('error', () => resolve(0));
+              req.end(body);
+            }),
+        ),
+      );
+    const statuses = [...(await burst()), ...(await burst()), ...(await burst())];
+    clearInterval(sampler);
+    expect(statuses.filter((s) => s === 200 || s === 503)).toHaveLength(900);
+    expect(samples).toBeGreaterThan(0);
+    // with round-robin (NODE_CLUSTER_SCHED_POLICY=rr) the primary accepts each one and queues it for a worker
+    expect(most).toBe(0);
+    r.child.kill('SIGTERM');
+    expect(await r.exited).toBe(0);
   });
 });
 
