@@ -6,7 +6,7 @@ export { parsePaste } from './paste/parse.ts';
 export { parseShorthand } from './paste/shorthand.ts';
 export { MAX_PASTE_CHARS } from './paste/types.ts';
 export type { PasteResult, ReadValue, Skipped, Shorthand, UnitSource } from './paste/types.ts';
-export { caseFromFhir } from './fhir/read.ts';
+export { caseFromFhir, MAX_REPORTED } from './fhir/read.ts';
 export { withoutInvisibleDeep } from './invisible.ts';
 export type {
   FhirConversion,

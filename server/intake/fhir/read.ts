@@ -67,7 +67,25 @@ export function caseFromFhir(json: unknown): FhirResult {
   return finish(result);
 }
 
+/** The most entries each report list keeps (results not used, results set aside, notes); a hostile or very long
+ *  payload would otherwise come back several times its size. The rest are counted in one last note. */
+export const MAX_REPORTED = 20;
+
+function bound(r: FhirResult): void {
+  const left: string[] = [];
+  const cut = <T>(list: T[], what: (n: number) => string) => {
+    if (list.length <= MAX_REPORTED) return;
+    left.push(what(list.length - MAX_REPORTED));
+    list.length = MAX_REPORTED;
+  };
+  cut(r.unused, (n) => `${n} more result${n === 1 ? '' : 's'} not used`);
+  cut(r.earlier, (n) => `${n} more result${n === 1 ? '' : 's'} set aside`);
+  cut(r.notes, (n) => `${n} more note${n === 1 ? '' : 's'}`);
+  if (left.length) r.notes.push(`Not listed here: ${left.join(', ')}.`);
+}
+
 function finish(r: FhirResult): FhirResult {
+  bound(r);
   r.missing = missingGas(r.case);
   r.ok = r.errors.length === 0 && r.questions.length === 0;
   return r;

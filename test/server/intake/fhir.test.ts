@@ -3,7 +3,7 @@
 // Every patient and number is invented.
 import { createRequire } from 'node:module';
 import { describe, expect, it } from 'vitest';
-import { caseFromFhir } from '../../../server/intake/index.ts';
+import { caseFromFhir, MAX_REPORTED } from '../../../server/intake/index.ts';
 import { parseCase } from '../../../calc/index.ts';
 
 const ucum = createRequire(import.meta.url)('@lhncbc/ucum-lhc').UcumLhcUtils.getInstance();
@@ -347,6 +347,24 @@ describe('what is not used is reported', () => {
     ]);
     expect(r.case.gas).toEqual({ ph: 7.31, pco2: 48, po2: 72, hco3: 23.5 });
     expect(r.ok).toBe(true);
+  });
+
+  it('a long list is cut at 20 entries, the rest counted in one note (a 64 KiB payload of other resources)', () => {
+    const others = Array.from({ length: 900 }, (_, i) => ({
+      resourceType: 'Patient',
+      id: `p${i}`,
+    }));
+    const r = caseFromFhir(bundle('collection', ...arterialGas(), ...others));
+    expect(r.unused).toHaveLength(MAX_REPORTED);
+    expect(r.notes.at(-1)).toBe(`Not listed here: ${900 - MAX_REPORTED} more results not used.`);
+    expect(r.case.gas).toEqual({ ph: 7.31, pco2: 48, po2: 72, hco3: 23.5 });
+    expect(r.ok).toBe(true);
+    // one more than the limit: "1 more result", and nothing is cut at the limit itself
+    const over = caseFromFhir(bundle('collection', ...arterialGas(), ...others.slice(0, 21)));
+    expect(over.notes.at(-1)).toBe('Not listed here: 1 more result not used.');
+    const at = caseFromFhir(bundle('collection', ...arterialGas(), ...others.slice(0, 20)));
+    expect(at.unused).toHaveLength(20);
+    expect(at.notes.some((n) => n.startsWith('Not listed here'))).toBe(false);
   });
 
   it('entered-in-error, cancelled and registered results are skipped and reported, even when newer', () => {
