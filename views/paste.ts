@@ -112,6 +112,16 @@ const MISSING_CHECK = [
   'chemistry.albumin',
 ];
 
+/** The most entries each list of the confirm view shows (set aside, lines with no result, notes, conversions,
+ *  problems); the rest are counted. A long paste would otherwise come back as a page several times its size. */
+export const MAX_LISTED = 20;
+/** A list as the page shows it: its first MAX_LISTED entries, its length, and how many are not shown. */
+const listed = <T>(list: readonly T[]) => ({
+  items: list.slice(0, MAX_LISTED),
+  total: list.length,
+  more: Math.max(0, list.length - MAX_LISTED),
+});
+
 /** The values to look at before the case is used, and the questions as form controls. */
 export function pasteView(
   intake: Intake,
@@ -193,8 +203,12 @@ export function pasteView(
     text: intake.text,
     fingerprint: fingerprint(intake.text),
     remark,
-    problems: intake.problems,
-    errors: errors.filter((e) => !e.path.startsWith('answer-')).map((e) => e.message),
+    /** what stops the values being used as they stand (errors), then what could not be read (problems) */
+    errors: errors.filter((e) => !e.path.startsWith('answer-')).length > 0,
+    problems: listed([
+      ...errors.filter((e) => !e.path.startsWith('answer-')).map((e) => e.message),
+      ...intake.problems,
+    ]),
     sample:
       known && intake.sampleFrom
         ? { value: capital(String(intake.case.sample)), from: intake.sampleFrom }
@@ -202,10 +216,10 @@ export function pasteView(
     read,
     questions,
     missing: read.length ? missing : [],
-    setAside: intake.setAside,
-    conversions: intake.conversions,
-    notes: intake.notes,
-    ignored: intake.ignored,
+    setAside: listed(intake.setAside),
+    conversions: listed(intake.conversions),
+    notes: listed(intake.notes),
+    ignored: listed(intake.ignored),
     canConfirm: usable,
   };
 }

@@ -18,6 +18,7 @@ import {
   type Fields,
 } from './pageHtml.ts';
 import { PRINTOUT } from './fixtures.ts';
+import { MAX_LISTED } from '../../views/paste.ts';
 
 const app = createApp();
 const renderer = createNoteRenderer();
@@ -551,5 +552,31 @@ describe('text with no result in it', () => {
     );
     expect(html).not.toMatch(/<img|<script>alert/);
     expect(textareaOf(html, 'paste-again')).toContain('<img src=x onerror=alert(1)>'); // escaped in the page, the same text when read back
+  });
+});
+
+describe('a long paste', () => {
+  it('each list shows at most 20 entries and counts the rest, so the page is not many times the text', async () => {
+    // the invented printout, then 1,500 lines that hold no result and 600 lines of standard bicarbonate, which is set aside
+    const filler = Array.from({ length: 1500 }, (_, i) => `Qz ${i}`).join('\n');
+    const repeats = Array.from({ length: 600 }, (_, i) => `Std HCO3 15.${i % 10} mmol/L`).join(
+      '\n',
+    );
+    const text = `${PRINTOUT}\n${filler}\n${repeats}`;
+    const res = await read(text);
+    const counted = (heading: RegExp) => Number(res.html.match(heading)?.[1]);
+    const ignored = counted(/Lines with no result \((\d+)\)/);
+    expect(ignored).toBeGreaterThanOrEqual(1500);
+    expect(res.html).toContain(`and ${ignored - MAX_LISTED} more not listed here`);
+    const setAside = counted(/Read but left out \((\d+)\)/);
+    expect(setAside).toBeGreaterThanOrEqual(600);
+    expect(res.html).toContain(`and ${setAside - MAX_LISTED} more not listed here`);
+    const lists = [...res.html.matchAll(/<ul class="aside-list">([\s\S]*?)<\/ul>/g)];
+    for (const [, list] of lists)
+      expect((list!.match(/<li>/g) ?? []).length).toBeLessThanOrEqual(MAX_LISTED);
+    // the text itself comes back once, in its box; everything else is a few kilobytes
+    expect(res.html.length).toBeLessThan(text.length + 20_000);
+    // what was read is still read
+    expect(readRows(res.html).some(([result]) => result === 'pH')).toBe(true);
   });
 });
