@@ -195,6 +195,8 @@ export function pasteView(
     )
     .map((p) => labelOf(p, sample));
   const usable = intake.read.length > 0 || questions.some((q) => q.kind === 'choice');
+  // errors about the values as they stand; an error on a question's answer is shown at the question
+  const blocking = errors.filter((e) => !e.path.startsWith('answer-')).map((e) => e.message);
   return {
     type: 'paste',
     id: 'paste',
@@ -203,12 +205,10 @@ export function pasteView(
     text: intake.text,
     fingerprint: fingerprint(intake.text),
     remark,
-    /** what stops the values being used as they stand (errors), then what could not be read (problems) */
-    errors: errors.filter((e) => !e.path.startsWith('answer-')).length > 0,
-    problems: listed([
-      ...errors.filter((e) => !e.path.startsWith('answer-')).map((e) => e.message),
-      ...intake.problems,
-    ]),
+    /** whether something stops the values being used as they stand */
+    errors: blocking.length > 0,
+    /** those errors, then what could not be read */
+    problems: listed([...blocking, ...intake.problems]),
     sample:
       known && intake.sampleFrom
         ? { value: capital(String(intake.case.sample)), from: intake.sampleFrom }
