@@ -5,14 +5,7 @@
 // answers or an exit code, never a time. (1,000 connections are in the benchmark: npm run bench.)
 import { createServer, Socket } from 'node:net';
 import { execFileSync } from 'node:child_process';
-import {
-  mkdtempSync,
-  readFileSync,
-  readdirSync,
-  readlinkSync,
-  rmSync,
-  writeFileSync,
-} from 'node:fs';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { request } from 'node:http';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
