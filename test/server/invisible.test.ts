@@ -7,7 +7,7 @@ import { createApp } from '../../server/app.ts';
 import { withoutInvisibleDeep } from '../../server/intake/index.ts';
 import { readJson } from '../../server/launch/http.ts';
 import { PRINTOUT } from './fixtures.ts';
-import { hidden, openId, poster, stateOf, textareaOf, typedGas } from './pageHtml.ts';
+import { hidden, openId, poster, stateOf, textareaOf, typedGas, walkSteps } from './pageHtml.ts';
 
 // the review's list (U+202A-202E, U+2066-2069, U+200E, U+200F, U+061C), each written out
 const CONTROLS = [
@@ -34,14 +34,12 @@ const post = poster(app);
 
 /** Skip every step still open, to the draft. */
 async function skipToDraft(html: string): Promise<string> {
-  for (let id = openId(html), n = 0; id !== null && n < 20; id = openId(html), n++) {
-    // a follow-up gas asks its oxygen again: room air, not ventilated
-    const oxygen = { 'oxygen.fio2': '0.21', ventilated: 'no', action: 'next' };
-    const fields = id === 'oxygen' ? oxygen : { action: 'skip' };
-    html = (await post('/step', { ...stateOf(html), step: id, ...fields })).html;
-  }
-  expect(openId(html)).toBeNull();
-  return html;
+  // a follow-up gas asks its oxygen again: room air, not ventilated
+  const done = await walkSteps(app, html, null, {
+    oxygen: { 'oxygen.fio2': '0.21', ventilated: 'no' },
+  });
+  expect(openId(done)).toBeNull();
+  return done;
 }
 
 async function draft(): Promise<string> {

@@ -2,30 +2,22 @@
 // carries it as context.conditions, and the reading uses it. Every patient is invented.
 import { describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app.ts';
-import { caseOf, openId, poster, stateOf, textareaOf, typedGas } from './pageHtml.ts';
+import { caseOf, openId, poster, stateOf, textareaOf, typedGas, walkSteps } from './pageHtml.ts';
 
 const app = createApp();
 const post = poster(app);
 
 /** An invented 67-year-old on 40% oxygen with SpO2 97%, answered step by step up to the patient step. */
 async function upToPatient(): Promise<string> {
-  let html = await typedGas(app, {
+  const gas = await typedGas(app, {
     'gas.ph': '7.34',
     'gas.pco2': '58',
     'gas.po2': '92',
     'gas.hco3': '30.6',
   });
-  for (
-    let id = openId(html), n = 0;
-    id !== null && id !== 'patient' && n < 10;
-    id = openId(html), n++
-  ) {
-    const fields: Record<string, string> =
-      id === 'oxygen'
-        ? { 'oxygen.fio2': '0.4', 'oxygen.spo2': '97', ventilated: 'no', action: 'next' }
-        : { action: 'skip' };
-    html = (await post('/step', { ...stateOf(html), step: id, ...fields })).html;
-  }
+  const html = await walkSteps(app, gas, 'patient', {
+    oxygen: { 'oxygen.fio2': '0.4', 'oxygen.spo2': '97', ventilated: 'no' },
+  });
   expect(openId(html)).toBe('patient');
   return html;
 }

@@ -75,3 +75,25 @@ export async function typedGas(app: Pick<Hono, 'request'>, gas: Fields): Promise
     html = (await post('/step', { ...stateOf(html), step, action: 'next', ...fields })).html;
   return html;
 }
+
+/**
+ * Answer the open steps one after another, each step named in `answers` with its fields, any other skipped, until
+ * the step `until` is open (null: until no step is, the draft). At most 20 steps: the caller checks where it ended.
+ */
+export async function walkSteps(
+  app: Pick<Hono, 'request'>,
+  html: string,
+  until: string | null,
+  answers: Record<string, Fields>,
+): Promise<string> {
+  const post = poster(app);
+  for (
+    let id = openId(html), n = 0;
+    id !== null && id !== until && n < 20;
+    id = openId(html), n++
+  ) {
+    const fields = answers[id] ? { ...answers[id], action: 'next' } : { action: 'skip' };
+    html = (await post('/step', { ...stateOf(html), step: id, ...fields })).html;
+  }
+  return html;
+}
