@@ -1,8 +1,11 @@
 // Running the real server in a child process for the process tests: a free port, a start that waits for the
 // "listening" lines (generously: the machine is shared and each process compiles its TypeScript), and a stop.
 import { spawn, type ChildProcess } from 'node:child_process';
-import { createServer } from 'node:net';
 import { afterAll } from 'vitest';
+import { freePort } from '../../bench/server.ts';
+
+/** A port free on 127.0.0.1 now: the benchmark's own. */
+export { freePort };
 
 const root = new URL('../..', import.meta.url).pathname;
 const children: ChildProcess[] = [];
@@ -12,20 +15,6 @@ afterAll(() => {
 
 /** How long a start may take on a shared two-core machine (each process compiles with tsx). */
 export const START_MS = 90_000;
-
-export function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const srv = createServer();
-    srv.listen(0, '127.0.0.1', () => {
-      const address = srv.address();
-      srv.close(() =>
-        typeof address === 'object' && address
-          ? resolve(address.port)
-          : reject(new Error('no port')),
-      );
-    });
-  });
-}
 
 export interface Running {
   child: ChildProcess;
